@@ -1,0 +1,50 @@
+#!/usr/bin/env bash
+# cladwise set-up: installs the Debian 12 packages that are missing, configures, builds, and then
+#   ./setup.sh          runs the demo case
+#   ./setup.sh test     runs the whole test suite through ctest
+# Nothing is downloaded except Debian packages; nothing is vendored.
+set -euo pipefail
+cd "$(dirname "$0")"
+
+mode="${1:-demo}"
+case "$mode" in demo|test|build) ;; *)
+  echo "usage: ./setup.sh [demo|test|build]" >&2; exit 2 ;;
+esac
+
+packages=(build-essential cmake pkg-config git
+          libeigen3-dev libspectra-dev libgmsh-dev libvtk9-dev libsuitesparse-dev
+          libarpack2-dev libgtest-dev libtomlplusplus-dev libboost-dev)
+
+missing=()
+for p in "${packages[@]}"; do
+  if ! dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed"; then
+    missing+=("$p")
+  fi
+done
+if ((${#missing[@]})); then
+  if [[ $(id -u) -eq 0 ]]; then
+    echo "setup: installing ${missing[*]}" >&2
+    export DEBIAN_FRONTEND=noninteractive
+    apt-get update -qq
+    apt-get install -y -qq --no-install-recommends "${missing[@]}" >&2
+  else
+    echo "setup: these Debian packages are missing; install them as root and run again:" >&2
+    echo "  sudo apt-get install -y ${missing[*]}" >&2
+    exit 2
+  fi
+fi
+
+jobs="$(nproc 2>/dev/null || echo 2)"
+cmake -S . -B build -DCMAKE_BUILD_TYPE=Release >&2
+cmake --build build --parallel "$jobs" >&2
+
+case "$mode" in
+  demo)
+    # Demo scenario of our own: a few-mode step-index fibre for 1.55 um work.
+    ./build/cladwise step-index --n-core 1.4560 --n-clad 1.4440 --radius-um 5.0 --wavelength-um 1.55
+    ;;
+  test)
+    ctest --test-dir build --output-on-failure --parallel "$jobs" --timeout 600
+    ;;
+  build) ;;
+esac

@@ -1,0 +1,1 @@
+// placeholder; replaced by the analytic step-index module
