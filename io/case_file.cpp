@@ -1,0 +1,542 @@
+// Case-file reader. Keys are looked up in the table of io/case_keys.hpp, so a key the table does
+// not declare can neither be read here nor silently accepted in a file: unknown keys are errors
+// with the line and the closest known key.
+#include "io/case_file.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <fstream>
+#include <set>
+#include <sstream>
+#include <toml++/toml.h>
+
+#include "io/case_keys.hpp"
+#include "mesh/error.hpp"
+
+namespace cladwise::io {
+namespace {
+
+std::string file_line(const std::string& file, const toml::source_region& src) {
+  if (src.begin.line == 0) return file;
+  return file + ":" + std::to_string(src.begin.line);
+}
+
+// Levenshtein distance, for "did you mean" hints on misspelt keys.
+std::size_t edit_distance(std::string_view a, std::string_view b) {
+  std::vector<std::size_t> prev(b.size() + 1), cur(b.size() + 1);
+  for (std::size_t j = 0; j <= b.size(); ++j) prev[j] = j;
+  for (std::size_t i = 1; i <= a.size(); ++i) {
+    cur[0] = i;
+    for (std::size_t j = 1; j <= b.size(); ++j) {
+      cur[j] = std::min({prev[j] + 1, cur[j - 1] + 1, prev[j - 1] + (a[i - 1] == b[j - 1] ? 0 : 1)});
+    }
+    std::swap(prev, cur);
+  }
+  return prev[b.size()];
+}
+
+/// Reads the keys of one TOML table, checking each against the key table and recording which
+/// were used, so that `finish()` can reject the rest.
+class TableReader {
+public:
+  TableReader(const toml::table& table, std::string section, std::string label, std::string file,
+              std::string shape = "")
+      : table_(table), section_(std::move(section)), label_(std::move(label)),
+        file_(std::move(file)), shape_(std::move(shape)) {}
+
+  std::string where() const { return file_line(file_, table_.source()) + " " + label_; }
+  std::string where(std::string_view key) const {
+    const toml::node* n = table_.get(key);
+    return file_line(file_, n ? n->source() : table_.source()) + " " + label_ + " key '" +
+           std::string(key) + "'";
+  }
+
+  bool has(std::string_view key) {
+    spec(key);
+    return table_.contains(key);
+  }
+
+  std::optional<double> number(std::string_view key) {
+    const CaseKey& k = spec(key);
+    const toml::node* n = node(key);
+    if (!n) return std::nullopt;
+    auto v = n->value<double>();
+    if (!v || n->is_boolean()) throw InputError(where(key), "must be a number");
+    check_bound(k, *v, key);
+    return v;
+  }
+  double number_or(std::string_view key, double fallback) { return number(key).value_or(fallback); }
+  double required_number(std::string_view key) {
+    auto v = number(key);
+    if (!v) throw missing(key);
+    return *v;
+  }
+
+  std::optional<long> integer(std::string_view key) {
+    const CaseKey& k = spec(key);
+    const toml::node* n = node(key);
+    if (!n) return std::nullopt;
+    auto v = n->value_exact<int64_t>();
+    if (!v) throw InputError(where(key), "must be a whole number");
+    check_bound(k, static_cast<double>(*v), key);
+    return static_cast<long>(*v);
+  }
+  long required_integer(std::string_view key) {
+    auto v = integer(key);
+    if (!v) throw missing(key);
+    return *v;
+  }
+
+  std::optional<bool> boolean(std::string_view key) {
+    spec(key);
+    const toml::node* n = node(key);
+    if (!n) return std::nullopt;
+    auto v = n->value_exact<bool>();
+    if (!v) throw InputError(where(key), "must be true or false");
+    return v;
+  }
+
+  std::optional<std::string> text(std::string_view key) {
+    spec(key);
+    const toml::node* n = node(key);
+    if (!n) return std::nullopt;
+    auto v = n->value_exact<std::string>();
+    if (!v) throw InputError(where(key), "must be a quoted string");
+    return v;
+  }
+  std::string required_text(std::string_view key) {
+    auto v = text(key);
+    if (!v) throw missing(key);
+    return *v;
+  }
+  std::string choice(std::string_view key, std::string fallback,
+                     std::initializer_list<std::string_view> allowed) {
+    std::string v = text(key).value_or(std::move(fallback));
+    if (std::find(allowed.begin(), allowed.end(), v) == allowed.end()) {
+      std::string list;
+      for (auto a : allowed) list += (list.empty() ? "\"" : ", \"") + std::string(a) + "\"";
+      throw InputError(where(key), "'" + v + "' is not one of " + list);
+    }
+    return v;
+  }
+
+  std::optional<std::vector<double>> numbers(std::string_view key, std::size_t count) {
+    const CaseKey& k = spec(key);
+    const toml::node* n = node(key);
+    if (!n) return std::nullopt;
+    const toml::array* arr = n->as_array();
+    if (!arr || arr->size() != count) {
+      throw InputError(where(key), "must be a list of " + std::to_string(count) + " numbers, e.g. " +
+                                       (count == 2 ? "[1.0, 2.0]" : "[2.1, 2.1, 2.2]"));
+    }
+    std::vector<double> out;
+    for (const auto& e : *arr) {
+      auto v = e.value<double>();
+      if (!v || e.is_boolean()) throw InputError(where(key), "every entry must be a number");
+      check_bound(k, *v, key);
+      out.push_back(*v);
+    }
+    return out;
+  }
+
+  std::vector<Point2> points(std::string_view key) {
+    spec(key);
+    const toml::node* n = node(key);
+    if (!n) throw missing(key);
+    const toml::array* arr = n->as_array();
+    if (!arr) throw InputError(where(key), "must be a list of [x, y] pairs");
+    std::vector<Point2> out;
+    for (const auto& e : *arr) {
+      const toml::array* p = e.as_array();
+      std::optional<double> x, y;
+      if (p && p->size() == 2) {
+        x = (*p)[0].value<double>();
+        y = (*p)[1].value<double>();
+      }
+      if (!x || !y || !std::isfinite(*x) || !std::isfinite(*y)) {
+        throw InputError(where(key), "entry " + std::to_string(out.size() + 1) +
+                                         " must be an [x, y] pair of numbers");
+      }
+      out.push_back({*x, *y});
+    }
+    return out;
+  }
+
+  const toml::table* subtable(std::string_view key) {
+    spec(key);
+    const toml::node* n = node(key);
+    if (!n) return nullptr;
+    if (!n->is_table()) throw InputError(where(key), "must be a table");
+    return n->as_table();
+  }
+
+  /// Rejects every key that was not read: a misspelt key must not be ignored silently.
+  void finish() const {
+    for (const auto& [key, value] : table_) {
+      if (used_.count(std::string(key.str()))) continue;
+      const std::string name(key.str());
+      std::string hint;
+      std::size_t best = 3;
+      for (const auto& k : case_keys()) {
+        if (k.section != section_) continue;
+        const std::size_t d = edit_distance(name, k.name);
+        if (d < best) {
+          best = d;
+          hint = " (did you mean '" + std::string(k.name) + "'?)";
+        }
+      }
+      const CaseKey* k = find_case_key(section_, name);
+      if (k && !shape_.empty()) {
+        throw InputError(file_line(file_, value.source()) + " " + label_ + " key '" + name + "'",
+                         "does not apply to shape \"" + shape_ + "\" (it is for: " +
+                             std::string(k->applies_to) + ")");
+      }
+      throw InputError(file_line(file_, value.source()) + " " + label_ + " key '" + name + "'",
+                       "unknown key" + hint + "; see docs/case-format.md");
+    }
+  }
+
+private:
+  const CaseKey& spec(std::string_view key) {
+    const CaseKey* k = find_case_key(section_, key);
+    // A key read here but not declared in the table is a programmer error.
+    if (!k) throw std::logic_error("case key not declared: [" + section_ + "] " + std::string(key));
+    used_.insert(std::string(key));
+    return *k;
+  }
+  const toml::node* node(std::string_view key) const { return table_.get(key); }
+  InputError missing(std::string_view key) const {
+    return InputError(where() + " key '" + std::string(key) + "'",
+                      "is required here; see docs/case-format.md");
+  }
+  void check_bound(const CaseKey& k, double v, std::string_view key) const {
+    if (!std::isfinite(v)) throw InputError(where(key), "must be finite");
+    if (k.bound == KeyBound::positive && !(v > 0)) {
+      throw InputError(where(key), "must be greater than zero (got " + std::to_string(v) + ")");
+    }
+    if (k.bound == KeyBound::non_negative && v < 0) {
+      throw InputError(where(key), "must not be negative (got " + std::to_string(v) + ")");
+    }
+  }
+
+  const toml::table& table_;
+  std::string section_;
+  std::string label_;
+  std::string file_;
+  std::string shape_;
+  std::set<std::string> used_;
+};
+
+WallKind wall_from(const std::string& s) {
+  return s == "magnetic" ? WallKind::magnetic : WallKind::electric;
+}
+
+MaterialSpec read_material(const std::string& name, const toml::node& node, const std::string& file) {
+  MaterialSpec m;
+  m.name = name;
+  m.where = file_line(file, node.source());
+  const std::string label = "[materials] '" + name + "'";
+  if (node.is_number()) {
+    const double v = *node.value<double>();
+    if (!std::isfinite(v) || v <= 0) {
+      throw InputError(m.where + " " + label, "the refractive index must be a positive number");
+    }
+    m.index = v;
+    return m;
+  }
+  const toml::table* t = node.as_table();
+  if (!t) {
+    throw InputError(m.where + " " + label,
+                     "must be an index (e.g. 1.444) or a table such as { index = 1.444 }");
+  }
+  TableReader r(*t, "materials.NAME", label, file);
+  m.index = r.number("index");
+  if (auto eps = r.numbers("permittivity", 3)) m.permittivity = std::array{(*eps)[0], (*eps)[1], (*eps)[2]};
+  r.finish();
+  if (m.index.has_value() == m.permittivity.has_value()) {
+    throw InputError(m.where + " " + label, "give exactly one of 'index' or 'permittivity'");
+  }
+  return m;
+}
+
+Placement read_placement(TableReader& r) {
+  Placement p;
+  if (auto c = r.numbers("centre_um", 2)) p.offset = {(*c)[0], (*c)[1]};
+  p.rotation_deg = r.number_or("rotation_deg", 0.0);
+  return p;
+}
+
+std::vector<Shape> place_all(std::vector<Shape> shapes, const Placement& group) {
+  for (auto& s : shapes) s.placement = compose(group, s.placement);
+  return shapes;
+}
+
+int checked_int(TableReader& r, std::string_view key, long hi) {
+  const long v = r.required_integer(key);
+  if (v > hi) throw InputError(r.where(key), "is too large (at most " + std::to_string(hi) + ")");
+  return static_cast<int>(v);
+}
+
+std::vector<Shape> read_shapes(TableReader& r, const std::string& shape) {
+  const Placement place = read_placement(r);
+  auto one = [&](ShapeGeometry g) { return std::vector<Shape>{Shape{std::move(g), place}}; };
+  if (shape == "disk") return one(Disk{r.required_number("radius_um")});
+  if (shape == "ellipse") {
+    auto ab = r.numbers("semi_axes_um", 2);
+    if (!ab) throw InputError(r.where() + " key 'semi_axes_um'", "is required for an ellipse");
+    return one(Ellipse{(*ab)[0], (*ab)[1]});
+  }
+  if (shape == "rectangle") {
+    Rectangle rect{r.required_number("width_um"), r.required_number("height_um"),
+                   r.number_or("corner_radius_um", 0.0)};
+    if (rect.corner_radius > 0.5 * std::min(rect.width, rect.height)) {
+      throw InputError(r.where("corner_radius_um"),
+                       "must be at most half the smaller side of the rectangle");
+    }
+    return one(rect);
+  }
+  if (shape == "polygon") {
+    auto v = r.points("vertices_um");
+    if (v.size() < 3) throw InputError(r.where("vertices_um"), "a polygon needs at least three vertices");
+    return one(Polygon{std::move(v)});
+  }
+  if (shape == "ring") {
+    Annulus a{r.required_number("inner_radius_um"), r.required_number("outer_radius_um")};
+    if (!(a.inner_radius < a.outer_radius)) {
+      throw InputError(r.where("inner_radius_um"), "must be smaller than outer_radius_um");
+    }
+    return one(a);
+  }
+  if (shape == "hole-lattice") {
+    const double pitch = r.required_number("pitch_um");
+    const double d = r.required_number("hole_diameter_um");
+    if (!(d < pitch)) throw InputError(r.where("hole_diameter_um"), "must be smaller than pitch_um (holes would touch)");
+    const int rings = checked_int(r, "rings", 30);
+    return place_all(hexagonal_lattice(pitch, d, rings, r.boolean("skip_centre").value_or(true)), place);
+  }
+  if (shape == "core-ring") {
+    const int n = checked_int(r, "count", 1000);
+    const double pitch = r.required_number("pitch_um");
+    const double rc = r.required_number("core_radius_um");
+    if (!(2 * rc < pitch)) throw InputError(r.where("core_radius_um"), "cores would touch: 2 × core_radius_um must be less than pitch_um");
+    return place_all(core_ring(n, pitch, rc, r.boolean("centre_core").value_or(false)), place);
+  }
+  if (shape == "core-grid") {
+    const int nx = checked_int(r, "columns", 1000);
+    const int ny = checked_int(r, "rows", 1000);
+    const double pitch = r.required_number("pitch_um");
+    const double rc = r.required_number("core_radius_um");
+    if (!(2 * rc < pitch)) throw InputError(r.where("core_radius_um"), "cores would touch: 2 × core_radius_um must be less than pitch_um");
+    return place_all(core_square_array(nx, ny, pitch, rc), place);
+  }
+  if (shape == "stress-rods") {
+    const double off = r.required_number("offset_um");
+    const double rr = r.required_number("rod_radius_um");
+    if (!(rr < off)) throw InputError(r.where("rod_radius_um"), "must be smaller than offset_um (the rods would overlap)");
+    return place_all(stress_rod_pair(off, rr), place);
+  }
+  if (shape == "rib") {
+    const double ws = r.required_number("slab_width_um");
+    const double ts = r.required_number("slab_thickness_um");
+    const double wr = r.required_number("rib_width_um");
+    const double hr = r.required_number("rib_height_um");
+    if (wr > ws) throw InputError(r.where("rib_width_um"), "must not exceed slab_width_um");
+    // Slab on 0 <= y <= ts, rib on ts <= y <= ts + hr, both centred on x = 0 (local frame). The
+    // rib overlaps the slab by a sliver so the union is one connected shape.
+    std::vector<Shape> parts{Shape{Rectangle{ws, ts, 0.0}, Placement{{0.0, 0.5 * ts}, 0.0}},
+                             Shape{Rectangle{wr, hr + 0.5 * ts, 0.0}, Placement{{0.0, ts + 0.5 * hr - 0.25 * ts}, 0.0}}};
+    return place_all(std::move(parts), place);
+  }
+  std::string list;
+  for (auto s : region_shapes()) list += (list.empty() ? "" : ", ") + std::string(s);
+  throw InputError(r.where("shape"), "unknown shape \"" + shape + "\"; known shapes: " + list);
+}
+
+CaseSpec read_case(const toml::table& root, const std::filesystem::path& path) {
+  const std::string file = path.string();
+  CaseSpec c;
+  c.path = path;
+  TableReader top(root, "", "", file);
+  c.title = top.text("title").value_or(path.stem().string());
+  c.wavelength_um = top.required_number("wavelength_um");
+
+  // Sections are tables; make sure each is one before reading.
+  auto section = [&](const char* name) -> const toml::table* {
+    const toml::node* n = root.get(name);
+    if (!n) return nullptr;
+    if (!n->is_table()) throw InputError(file_line(file, n->source()) + " '" + name + "'", "must be a [" + std::string(name) + "] section");
+    return n->as_table();
+  };
+  std::set<std::string> sections_seen = {"title", "wavelength_um", "materials", "domain", "region", "mesh", "solve", "import"};
+  for (const auto& [key, value] : root) {
+    const std::string k(key.str());
+    if (!sections_seen.count(k)) {
+      throw InputError(file_line(file, value.source()) + " key '" + k + "'",
+                       "unknown top-level key or section; see docs/case-format.md");
+    }
+  }
+
+  // [materials]
+  const toml::table* mats = section("materials");
+  if (!mats || mats->empty()) throw InputError(file, "the case needs a [materials] section naming at least one material");
+  for (const auto& [key, value] : *mats) c.materials.push_back(read_material(std::string(key.str()), value, file));
+
+  auto known_material = [&](const std::string& name, const std::string& where) {
+    if (c.find_material(name)) return;
+    std::string list;
+    for (const auto& m : c.materials) list += (list.empty() ? "" : ", ") + m.name;
+    throw InputError(where, "unknown material '" + name + "' (the case defines: " + list + ")");
+  };
+
+  // [mesh]
+  if (const toml::table* t = section("mesh")) {
+    TableReader r(*t, "mesh", "[mesh]", file);
+    auto& mc = c.geometry.controls;
+    if (auto o = r.integer("order")) {
+      if (*o != 1 && *o != 2) throw InputError(r.where("order"), "must be 1 or 2");
+      mc.order = static_cast<int>(*o);
+    }
+    mc.default_size = r.number_or("size_um", 0.0);
+    mc.max_size = r.number_or("max_size_um", 0.0);
+    mc.interface_size = r.number_or("interface_size_um", 0.0);
+    mc.growth = r.number_or("growth", 1.3);
+    if (!(mc.growth > 1.0)) throw InputError(r.where("growth"), "must be greater than 1");
+    r.finish();
+  }
+
+  // [solve]
+  if (const toml::table* t = section("solve")) {
+    TableReader r(*t, "solve", "[solve]", file);
+    if (auto n = r.integer("modes")) {
+      if (*n > 500) throw InputError(r.where("modes"), "at most 500 modes per solve");
+      c.solve.n_modes = static_cast<int>(*n);
+    }
+    c.solve.all_guided = r.boolean("all_guided").value_or(false);
+    c.solve.target_index = r.number("target_index");
+    r.finish();
+  }
+
+  // [import] or [domain] + [[region]]
+  const toml::table* imp = section("import");
+  const toml::table* dom = section("domain");
+  const toml::node* regions = root.get("region");
+  if (imp) {
+    if (regions) throw InputError(file_line(file, regions->source()) + " [[region]]", "an [import] case takes its regions from the file; remove the [[region]] entries");
+    TableReader r(*imp, "import", "[import]", file);
+    ImportSpec s;
+    s.where = r.where();
+    s.path = path.parent_path() / r.required_text("path");
+    const toml::table* groups = r.subtable("materials");
+    if (!groups || groups->empty()) throw InputError(r.where("materials"), "is required: map each physical group to a material, e.g. materials = { core = \"germania\" }");
+    for (const auto& [key, value] : *groups) {
+      auto m = value.value_exact<std::string>();
+      const std::string w = file_line(file, value.source()) + " [import] materials." + std::string(key.str());
+      if (!m) throw InputError(w, "must be a material name in quotes");
+      known_material(*m, w);
+      s.group_materials[std::string(key.str())] = *m;
+    }
+    r.finish();
+    if (!std::filesystem::exists(s.path)) throw InputError(r.where("path"), "file not found: " + s.path.string());
+    c.import = s;
+  }
+  if (!dom) {
+    if (!imp) throw InputError(file, "the case needs a [domain] section (outer boundary and background material) or an [import] section");
+  } else {
+    TableReader r(*dom, "domain", "[domain]", file);
+    auto& g = c.geometry;
+    g.outer.where = r.where();
+    const std::string shape = r.choice("shape", "disk", {"disk", "rectangle"});
+    if (shape == "disk") {
+      g.outer.kind = OuterBoundary::Kind::disk;
+      g.outer.radius = r.required_number("radius_um");
+    } else {
+      g.outer.kind = OuterBoundary::Kind::rectangle;
+      g.outer.width = r.required_number("width_um");
+      g.outer.height = r.required_number("height_um");
+    }
+    if (auto cc = r.numbers("centre_um", 2)) g.outer.centre = {(*cc)[0], (*cc)[1]};
+    g.background_material = r.required_text("material");
+    known_material(g.background_material, r.where("material"));
+    g.outer.pml_thickness = r.number_or("pml_thickness_um", 0.0);
+    const std::string sym = r.choice("symmetry", "none", {"none", "half-upper", "half-right", "quarter"});
+    g.symmetry = sym == "half-upper" ? SymmetryCut::half_upper
+                 : sym == "half-right" ? SymmetryCut::half_right
+                 : sym == "quarter"    ? SymmetryCut::quarter
+                                       : SymmetryCut::none;
+    c.walls.outer = wall_from(r.choice("outer_wall", "electric", {"electric", "magnetic"}));
+    c.walls.x_axis = wall_from(r.choice("x_axis_wall", "electric", {"electric", "magnetic"}));
+    c.walls.y_axis = wall_from(r.choice("y_axis_wall", "magnetic", {"electric", "magnetic"}));
+    r.finish();
+    if (imp) throw InputError(r.where(), "give either [domain] with [[region]] entries or [import], not both");
+  }
+
+  if (regions) {
+    const toml::array* arr = regions->as_array();
+    if (!arr || !arr->is_array_of_tables()) throw InputError(file_line(file, regions->source()) + " region", "regions are written as [[region]] tables");
+    std::set<std::string> names;
+    int index = 0;
+    for (const auto& node : *arr) {
+      ++index;
+      const toml::table& t = *node.as_table();
+      const std::string label = "[[region]] #" + std::to_string(index);
+      TableReader probe(t, "region", label, file);
+      const std::string shape = probe.required_text("shape");
+      TableReader r(t, "region", label, file, shape);
+      RegionSpec reg;
+      reg.name = r.text("name").value_or("region" + std::to_string(index));
+      reg.where = r.where() + " ('" + reg.name + "')";
+      if (!names.insert(reg.name).second) throw InputError(r.where("name"), "region name '" + reg.name + "' is used twice");
+      if (reg.name == "background" || reg.name == "pml") throw InputError(r.where("name"), "'" + reg.name + "' is reserved; choose another region name");
+      reg.material = r.required_text("material");
+      known_material(reg.material, r.where("material"));
+      r.required_text("shape");
+      reg.mesh_size = r.number_or("mesh_size_um", 0.0);
+      reg.guiding = r.boolean("guiding").value_or(false);
+      // Only keys that belong to this shape may appear: mark the shape's keys as read first.
+      reg.shapes = read_shapes(r, shape);
+      r.finish();
+      c.geometry.regions.push_back(std::move(reg));
+    }
+  }
+  return c;
+}
+
+}  // namespace
+
+double MaterialSpec::max_index() const {
+  if (index) return *index;
+  return std::sqrt(std::max({(*permittivity)[0], (*permittivity)[1], (*permittivity)[2]}));
+}
+double MaterialSpec::min_index() const {
+  if (index) return *index;
+  return std::sqrt(std::min({(*permittivity)[0], (*permittivity)[1], (*permittivity)[2]}));
+}
+
+const MaterialSpec* CaseSpec::find_material(const std::string& name) const {
+  for (const auto& m : materials) {
+    if (m.name == name) return &m;
+  }
+  return nullptr;
+}
+
+CaseSpec read_case_text(const std::string& text, const std::filesystem::path& origin) {
+  toml::table root;
+  try {
+    root = toml::parse(text, origin.string());
+  } catch (const toml::parse_error& e) {
+    throw InputError(origin.string() + ":" + std::to_string(e.source().begin.line) + ":" +
+                         std::to_string(e.source().begin.column),
+                     "not valid TOML: " + std::string(e.description()));
+  }
+  return read_case(root, origin);
+}
+
+CaseSpec read_case_file(const std::filesystem::path& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw InputError(path.string(), "cannot open the case file (does it exist and is it readable?)");
+  std::ostringstream buf;
+  buf << in.rdbuf();
+  return read_case_text(buf.str(), path);
+}
+
+}  // namespace cladwise::io

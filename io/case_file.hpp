@@ -1,0 +1,68 @@
+// Reading a case file (TOML, keys declared in io/case_keys.hpp, reference in docs/case-format.md)
+// into a CaseSpec: the cross-section geometry for mesh/, the materials and what to solve for.
+// Every error names the file, the line and the key, and says what to do.
+#pragma once
+
+#include <array>
+#include <filesystem>
+#include <map>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "mesh/cross_section.hpp"
+
+namespace cladwise::io {
+
+/// A named material as written in the case (resolved into solver tensors by the solve command).
+struct MaterialSpec {
+  std::string name;
+  std::optional<double> index;                       ///< isotropic real index
+  std::optional<std::array<double, 3>> permittivity; ///< diagonal eps_xx, eps_yy, eps_zz
+  std::string where;                                  ///< "case.toml:5"
+  /// Largest refractive index this material offers (sqrt of the largest permittivity).
+  double max_index() const;
+  /// Smallest refractive index this material offers.
+  double min_index() const;
+};
+
+enum class WallKind { electric, magnetic };
+
+struct BoundarySpec {
+  WallKind outer = WallKind::electric;
+  WallKind x_axis = WallKind::electric;   ///< on a cut along y = 0
+  WallKind y_axis = WallKind::magnetic;   ///< on a cut along x = 0
+};
+
+struct SolveSpec {
+  int n_modes = 2;
+  bool all_guided = false;
+  std::optional<double> target_index;
+};
+
+/// Geometry from a file instead of [domain] and [[region]].
+struct ImportSpec {
+  std::filesystem::path path;                          ///< resolved against the case's folder
+  std::map<std::string, std::string> group_materials;  ///< physical-group name -> material
+  std::string where;
+};
+
+struct CaseSpec {
+  std::filesystem::path path;
+  std::string title;
+  double wavelength_um = 0;
+  std::vector<MaterialSpec> materials;
+  CrossSection geometry;                 ///< from [domain], [[region]] and [mesh]
+  std::optional<ImportSpec> import;      ///< set when the geometry comes from a file
+  BoundarySpec walls;
+  SolveSpec solve;
+
+  const MaterialSpec* find_material(const std::string& name) const;
+};
+
+/// Reads and validates a case file. Throws InputError("file:line key", "what to do").
+CaseSpec read_case_file(const std::filesystem::path& path);
+/// Same, from text (the `origin` names it in messages); for tests.
+CaseSpec read_case_text(const std::string& text, const std::filesystem::path& origin);
+
+}  // namespace cladwise::io
