@@ -106,3 +106,34 @@ struct CrossSection {
 };
 
 }  // namespace cladwise
+
+// ---- validation and size defaults (appended; implemented in mesh/cross_section.cpp) --------
+namespace cladwise {
+
+/// Checks every size, radius and polygon of `section` before any meshing: positive sizes,
+/// 0 <= corner_radius <= min(width, height)/2, inner < outer radius, polygons simple (pairwise
+/// segment intersection tests), unique non-empty region names and materials, order 1 or 2,
+/// growth >= 1. Throws InputError naming the region's `where` (or the outer boundary's) and the key.
+void validate(const CrossSection& section);
+
+/// Characteristic half-size of one shape: disk radius, smaller ellipse semi-axis, half the smaller
+/// rectangle side, half the annulus wall, half the smaller side of a polygon's bounding box.
+/// The automatic element size of a region is derived from it (see docs in gmsh_mesher.hpp).
+double feature_length(const ShapeGeometry& g);
+
+/// Element size the mesher uses inside region `index` of `section` (after defaults are applied):
+/// RegionSpec::mesh_size when > 0; otherwise the smallest feature_length of its shapes divided by
+/// 6 for guiding regions and by 4 for the others, capped by MeshControls::default_size when that
+/// is > 0. Either way capped by MeshControls::max_size when that is > 0.
+double region_mesh_size(const CrossSection& section, std::size_t index);
+
+/// Element size of the background (and of the PML shell): MeshControls::default_size when > 0,
+/// else a tenth of the domain's half-size (disk radius / 10, min(width, height) / 20); capped by
+/// max_size.
+double background_mesh_size(const CrossSection& section);
+
+/// Exact area of the physical domain after the symmetry cut (no PML): π R² or W·H, divided by 2
+/// for a half cut and by 4 for a quarter cut (a cut assumes the domain is centred on the axes).
+double domain_area(const CrossSection& section);
+
+}  // namespace cladwise
