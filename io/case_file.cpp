@@ -40,9 +40,17 @@ std::size_t edit_distance(std::string_view a, std::string_view b) {
 class TableReader {
 public:
   TableReader(const toml::table& table, std::string section, std::string label, std::string file,
-              std::string shape = "")
+              std::string shape = "", bool reject_unknown_now = true)
       : table_(table), section_(std::move(section)), label_(std::move(label)),
-        file_(std::move(file)), shape_(std::move(shape)) {}
+        file_(std::move(file)), shape_(std::move(shape)) {
+    // Unknown (e.g. misspelt) keys are reported before anything else, since a "missing key"
+    // error would otherwise hide the real cause.
+    if (reject_unknown_now) {
+      for (const auto& [key, value] : table_) {
+        if (!find_case_key(section_, key.str())) unknown(std::string(key.str()), value);
+      }
+    }
+  }
 
   std::string where() const { return file_line(file_, table_.source()) + " " + label_; }
   std::string where(std::string_view key) const {
@@ -175,25 +183,29 @@ public:
     for (const auto& [key, value] : table_) {
       if (used_.count(std::string(key.str()))) continue;
       const std::string name(key.str());
-      std::string hint;
-      std::size_t best = 3;
-      for (const auto& k : case_keys()) {
-        if (k.section != section_) continue;
-        const std::size_t d = edit_distance(name, k.name);
-        if (d < best) {
-          best = d;
-          hint = " (did you mean '" + std::string(k.name) + "'?)";
-        }
-      }
       const CaseKey* k = find_case_key(section_, name);
       if (k && !shape_.empty()) {
         throw InputError(file_line(file_, value.source()) + " " + label_ + " key '" + name + "'",
                          "does not apply to shape \"" + shape_ + "\" (it is for: " +
                              std::string(k->applies_to) + ")");
       }
-      throw InputError(file_line(file_, value.source()) + " " + label_ + " key '" + name + "'",
-                       "unknown key" + hint + "; see docs/case-format.md");
+      unknown(name, value);
     }
+  }
+
+  [[noreturn]] void unknown(const std::string& name, const toml::node& value) const {
+    std::string hint;
+    std::size_t best = 3;
+    for (const auto& k : case_keys()) {
+      if (k.section != section_) continue;
+      const std::size_t d = edit_distance(name, k.name);
+      if (d < best) {
+        best = d;
+        hint = " (did you mean '" + std::string(k.name) + "'?)";
+      }
+    }
+    throw InputError(file_line(file_, value.source()) + " " + label_ + " key '" + name + "'",
+                     "unknown key" + hint + "; see docs/case-format.md");
   }
 
 private:
@@ -341,10 +353,10 @@ std::vector<Shape> read_shapes(TableReader& r, const std::string& shape) {
     const double wr = r.required_number("rib_width_um");
     const double hr = r.required_number("rib_height_um");
     if (wr > ws) throw InputError(r.where("rib_width_um"), "must not exceed slab_width_um");
-    // Slab on 0 <= y <= ts, rib on ts <= y <= ts + hr, both centred on x = 0 (local frame). The
-    // rib overlaps the slab by a sliver so the union is one connected shape.
+    // Slab on 0 <= y <= ts, rib on ts <= y <= ts + hr, both centred on x = 0 (local frame); they
+    // share the segment y = ts, |x| <= wr/2, and the mesher fuses them into one shape.
     std::vector<Shape> parts{Shape{Rectangle{ws, ts, 0.0}, Placement{{0.0, 0.5 * ts}, 0.0}},
-                             Shape{Rectangle{wr, hr + 0.5 * ts, 0.0}, Placement{{0.0, ts + 0.5 * hr - 0.25 * ts}, 0.0}}};
+                             Shape{Rectangle{wr, hr, 0.0}, Placement{{0.0, ts + 0.5 * hr}, 0.0}}};
     return place_all(std::move(parts), place);
   }
   std::string list;
@@ -356,7 +368,7 @@ CaseSpec read_case(const toml::table& root, const std::filesystem::path& path) {
   const std::string file = path.string();
   CaseSpec c;
   c.path = path;
-  TableReader top(root, "", "", file);
+  TableReader top(root, "", "", file, "", false);
   c.title = top.text("title").value_or(path.stem().string());
   c.wavelength_um = top.required_number("wavelength_um");
 
