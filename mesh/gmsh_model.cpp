@@ -23,6 +23,24 @@ std::string num(double v) {
 
 constexpr int tri3 = 2, tri6 = 9, line2 = 1, line3 = 8;  // Gmsh element type codes
 
+// Length of a model curve as a 64-chord polyline (works for OCC and built-in geometry alike; only
+// used to choose how densely the Distance field samples the curve).
+double curve_length(int curve) {
+  std::vector<double> lo, hi;
+  gmsh::model::getParametrizationBounds(1, curve, lo, hi);
+  constexpr int n = 64;
+  std::vector<double> u(n + 1);
+  for (int k = 0; k <= n; ++k) u[k] = lo[0] + (hi[0] - lo[0]) * k / n;
+  std::vector<double> xyz;
+  gmsh::model::getValue(1, curve, u, xyz);
+  double length = 0;
+  for (int k = 0; k < n; ++k) {
+    length += std::hypot(xyz[3 * k + 3] - xyz[3 * k], xyz[3 * k + 4] - xyz[3 * k + 1],
+                         xyz[3 * k + 5] - xyz[3 * k + 2]);
+  }
+  return length;
+}
+
 }  // namespace
 
 BoundaryKind boundary_kind(const std::string& name) {
@@ -60,15 +78,15 @@ void apply_size_zones(const std::vector<SizeZone>& zones, double growth, double 
     const int r = field::add("Restrict");
     field::setNumber(r, "InField", c);
     field::setNumbers(r, "SurfacesList", std::vector<double>(z.surfaces.begin(), z.surfaces.end()));
+    // the zone's own size also holds on its bounding curves (else they would see no size at all
+    // where no growth field reaches, e.g. an outer circle bounding only the coarsest zone)
+    field::setNumbers(r, "CurvesList",
+                      std::vector<double>(z.boundary_curves.begin(), z.boundary_curves.end()));
     members.push_back(r);
     // A growth field matters only where this zone's boundary is finer than something nearby.
     if (z.boundary_curves.empty() || z.boundary_size >= largest) continue;
     double longest = 0;
-    for (int curve : z.boundary_curves) {
-      double length = 0;
-      gmsh::model::occ::getMass(1, curve, length);
-      longest = std::max(longest, length);
-    }
+    for (int curve : z.boundary_curves) longest = std::max(longest, curve_length(curve));
     // Distance samples each curve at NumPointsPerCurve points: keep the samples at most half an
     // element apart on the longest curve so the distance is exact to ~h/4 at the interface.
     const double n = std::clamp(std::ceil(2.0 * longest / z.boundary_size), 20.0, 20000.0);
