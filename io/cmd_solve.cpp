@@ -1,6 +1,102 @@
-// PLACEHOLDER while the command is being built; replaced by its issue's work. Must not land as is.
+// `cladwise solve CASE.toml`: the tutorial skeleton make_mesh -> setup_dofs -> assemble -> solve
+// -> postprocess -> write_results. Writes DIR/modes.json, DIR/modes.csv, one DIR/mode_NN.vtu per
+// mode and DIR/modes.pvd, through a staging folder renamed at the end.
+#include <omp.h>
+
+#include <chrono>
+#include <cmath>
+#include <cstdio>
+#include <filesystem>
+
+#include "io/case_file.hpp"
+#include "io/cli_options.hpp"
 #include "io/commands.hpp"
+#include "io/mesh_case.hpp"
+#include "io/progress.hpp"
+#include "io/results.hpp"
+#include "io/solve_case.hpp"
+#include "io/staged_output.hpp"
+#include "io/vtk_export.hpp"
 #include "mesh/error.hpp"
+
 namespace cladwise::io {
-int run_solve(const Args&) { throw InputError("command 'solve'", "is not available in this build yet"); }
+
+namespace fs = std::filesystem;
+
+int run_solve(const Args& args) {
+  CommandLine cl("solve", "Compute the modes of a case and write modes.json, modes.csv and VTK fields.",
+                 {{"out", "DIR", "output folder (default: <case name>.out beside the case)", false},
+                  {"threads", "N", "threads for assembly (default: all cores)", false},
+                  {"quiet", "", "no progress on stderr", false}},
+                 {"CASE.toml"});
+  if (!cl.parse(args)) return 0;
+  if (cl.has("threads")) omp_set_num_threads(static_cast<int>(cl.integer("threads", 1, 1024)));
+  const fs::path case_path = cl.positional()[0];
+  const CaseSpec c = read_case_file(case_path);
+  const fs::path out_dir = cl.text_or_none("out").value_or(
+      (case_path.parent_path() / (case_path.stem().string() + ".out")).string());
+
+  Progress progress(cl.has("quiet"));
+  const auto t0 = std::chrono::steady_clock::now();
+
+  // 1. make_mesh
+  progress.update("meshing");
+  MeshReport report;
+  const Mesh mesh = mesh_case(c, &report);
+  progress.note("meshed: " + std::to_string(mesh.n_triangles()) + " triangles, order " +
+                std::to_string(mesh.order));
+
+  // 2-4. setup_dofs, assemble, solve
+  const CaseSolution sol = solve_case(c, mesh, &progress);
+  progress.note("solved: " + std::to_string(sol.n_dofs) + " unknowns, " +
+                std::to_string(sol.modes.size()) + " modes");
+
+  // 5. postprocess and 6. write_results, all into the staging folder first.
+  StagedOutput out(out_dir);
+  RunResult run;
+  run.case_path = case_path.string();
+  run.n_triangles = mesh.n_triangles();
+  run.order = mesh.order;
+  run.n_dofs = sol.n_dofs;
+  PointResult point;
+  point.wavelength_um = c.wavelength_um;
+  std::vector<PvdEntry> pvd;
+  for (std::size_t m = 0; m < sol.modes.size(); ++m) {
+    progress.update("writing fields", static_cast<double>(m) / sol.modes.size());
+    const auto& mode = sol.modes[m];
+    ModeRow row;
+    row.n_eff = mode.mode.n_eff;
+    row.n_eff_imag = 0.0;
+    row.loss_db_per_m = loss_db_per_m(0.0, c.wavelength_um);
+    row.label = mode.label;
+    row.residual = mode.mode.residual;
+    row.metrics = mode.metrics;
+    point.modes.push_back(row);
+    char name[32];
+    std::snprintf(name, sizeof name, "mode_%02zu.vtu", m + 1);
+    write_vtu(mesh, mode_field_arrays(c, mesh, mode), out.staging() / name);
+    pvd.push_back({static_cast<double>(m + 1), name});
+  }
+  write_pvd(pvd, out.staging() / "modes.pvd");
+  run.points.push_back(point);
+  run.mesh_s = report.seconds;
+  run.assembly_s = sol.timing.assembly_s;
+  run.factorization_s = sol.timing.factorization_s;
+  run.eigensolve_s = sol.timing.eigensolve_s;
+  run.total_s = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+  write_text_file(out.staging() / "modes.json", modes_json(run));
+  write_text_file(out.staging() / "modes.csv", modes_csv(run));
+  out.commit();
+  progress.note("wrote " + out_dir.string());
+
+  if (!cl.has("quiet")) {
+    std::printf("%-5s %-12s %18s %12s\n", "mode", "label", "n_eff", "residual");
+    for (std::size_t m = 0; m < point.modes.size(); ++m) {
+      std::printf("%-5zu %-12s %18.12f %12.2e\n", m + 1, point.modes[m].label.c_str(),
+                  point.modes[m].n_eff, point.modes[m].residual);
+    }
+  }
+  return 0;
+}
+
 }  // namespace cladwise::io
