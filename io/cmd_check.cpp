@@ -95,8 +95,9 @@ int run_check(const Args& args) {
                 rr.area, drawn_text, rr.min_quality);
     if (rr.role == RegionRole::physical) total += rr.area;
   }
-  std::printf("%-16s %-16s %-9s %10s %18.10g %18.10g\n", "domain", "", "", "", total,
-              c.import ? std::nan("") : domain_area(c.geometry));
+  char domain_text[32] = "-";
+  if (!c.import) std::snprintf(domain_text, sizeof domain_text, "%.10g", domain_area(c.geometry));
+  std::printf("%-16s %-16s %-9s %10s %18.10g %18s\n", "domain", "", "", "", total, domain_text);
   std::printf("\n(drawn_um2: area of the region's shapes before later regions paint over them)\n");
   return 0;
 }

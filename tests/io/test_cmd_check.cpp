@@ -113,3 +113,27 @@ TEST(CheckCommand, BadInputExitsTwoNamingThePlaceAndWritesNothing) {
   EXPECT_NE(missing.err.find("does-not-exist.toml"), std::string::npos);
   std::filesystem::remove_all(dir);
 }
+
+TEST(CheckCommand, ImportedGmshGeometryMapsGroupsToMaterials) {
+  // A .geo drawn elsewhere: a 4 µm core in a 20 µm disk; areas exact (π r²) to the order-2 error.
+  const auto dir = std::filesystem::temp_directory_path() / ("cladwise-import-" + std::to_string(::getpid()));
+  std::filesystem::create_directories(dir);
+  std::ofstream(dir / "fibre.geo") << "SetFactory(\"OpenCASCADE\");\nDisk(1) = {0, 0, 0, 20};\n"
+                                      "Disk(2) = {0, 0, 0, 4};\n"
+                                      "BooleanFragments{ Surface{1}; Delete; }{ Surface{2}; Delete; }\n"
+                                      "Physical Surface(\"core\") = {2};\nPhysical Surface(\"jacket\") = {3};\n";
+  const std::string head = "wavelength_um = 1.55\n[materials]\nsilica = 1.444\ndoped = 1.4504\n"
+                           "[import]\npath = \"fibre.geo\"\n";
+  std::ofstream(dir / "ok.toml") << head << "materials = { jacket = \"silica\", core = \"doped\" }\n"
+                                 << "[mesh]\norder = 2\nsize_um = 1.0\n";
+  const auto r = run_cli("check " + (dir / "ok.toml").string());
+  ASSERT_EQ(r.status, 0) << r.err;
+  EXPECT_NEAR(area_of(r.out, "core") / (std::numbers::pi * 16.0), 1.0, 1e-5) << r.out;
+  EXPECT_NEAR(area_of(r.out, "jacket") / (std::numbers::pi * (400.0 - 16.0)), 1.0, 1e-5) << r.out;
+  // A physical group without a material: exit 2 naming the group.
+  std::ofstream(dir / "bad.toml") << head << "materials = { core = \"doped\" }\n";
+  const auto bad = run_cli("check " + (dir / "bad.toml").string());
+  EXPECT_EQ(bad.status, 2);
+  EXPECT_NE(bad.err.find("jacket"), std::string::npos) << bad.err;
+  std::filesystem::remove_all(dir);
+}
