@@ -141,3 +141,64 @@ TEST(CurvedGeometry, MidEdgeNodesLieOnCirclesAndEllipses) {
   EXPECT_LT(worst, 1e-12);        // curved: on the circle/ellipse to machine precision
   EXPECT_GT(worst_chord, 1e-4);   // whereas the straight chord midpoints are visibly off it
 }
+
+namespace {
+// Edges between the "core" region and any other region, and the longest edge of the mesh.
+std::pair<int, double> core_interface_edges(const Mesh& m) {
+  const int core = region_index(m, "core");
+  std::vector<std::vector<int>> by_edge(m.n_edges());
+  for (int t = 0; t < m.n_triangles(); ++t) {
+    for (int e : m.triangle_edges[t]) by_edge[e].push_back(m.triangle_region[t]);
+  }
+  int n = 0;
+  double longest = 0;
+  for (int e = 0; e < m.n_edges(); ++e) {
+    const auto& a = m.nodes[m.edges[e][0]];
+    const auto& b = m.nodes[m.edges[e][1]];
+    longest = std::max(longest, std::hypot(a[0] - b[0], a[1] - b[1]));
+    if (by_edge[e].size() == 2 && (by_edge[e][0] == core) != (by_edge[e][1] == core)) ++n;
+  }
+  return {n, longest};
+}
+
+CrossSection single_core() {
+  CrossSection cs;
+  cs.background_material = "silica";
+  cs.outer.radius = 6;
+  cs.controls.order = 1;
+  cs.regions.push_back(RegionSpec{"core", "ge", {Shape{Disk{1.0}, {}}}, 0, true, "t"});
+  return cs;
+}
+}  // namespace
+
+TEST(SizeControl, AutomaticInterfaceAndCap) {
+  // automatic: guiding disk at radius / 6 -> 2π · 6 ≈ 37.7 segments on its circle
+  auto [n_auto, longest_auto] = core_interface_edges(mesh_cross_section(single_core()));
+  EXPECT_GE(n_auto, 32);
+  EXPECT_LE(n_auto, 44);
+  // interface_size 0.05 -> 2π / 0.05 ≈ 126 segments
+  auto cs = single_core();
+  cs.controls.interface_size = 0.05;
+  auto [n_fine, longest_fine] = core_interface_edges(mesh_cross_section(cs));
+  EXPECT_GE(n_fine, 110);
+  EXPECT_LE(n_fine, 145);
+  // the cap: background would be 6/10 = 0.6 µm; max_size 0.25 bounds every edge (Gmsh may
+  // overshoot a target by a few tens of percent)
+  cs = single_core();
+  cs.controls.max_size = 0.25;
+  auto [n_cap, longest_cap] = core_interface_edges(mesh_cross_section(cs));
+  EXPECT_LT(longest_cap, 0.25 * 1.5);
+  EXPECT_GT(longest_auto, 0.5);
+  (void)n_cap;
+  (void)longest_fine;
+}
+
+TEST(SizeControl, SlowerGrowthGivesMoreTriangles) {
+  auto cs = single_core();
+  cs.controls.interface_size = 0.03;
+  cs.controls.growth = 1.1;
+  const int slow = mesh_cross_section(cs).n_triangles();
+  cs.controls.growth = 1.5;
+  const int fast = mesh_cross_section(cs).n_triangles();
+  EXPECT_GT(slow, fast * 1.3);
+}
