@@ -46,31 +46,32 @@ int pole_order(ModeFamily family, int nu) {
 // written as a quadratic in X = U² J'_ν/(U J_ν) = p − ν with p = U J_{ν−1}(U)/J_ν(U):
 //   n1² X² + (n1² + n2²) X Y + n2² Y² − R = 0,  Y = −(U²/W²)(q + ν),  q = W K_{ν−1}(W)/K_ν(W),
 //   R = ν² (β/k)² V⁴/W⁴.
-// EH takes the larger root X_+ and HE the smaller X_−; X_− = (n2² Y² − R)/(n1² X_+) avoids the
-// cancellation of the textbook ± form, and n2² Y² − R is expanded so that its 1/W⁴ terms cancel
-// exactly (t = U²/W², (β/k)² = n2² + (n1² − n2²) W²/V²).
-double hybrid_function(const Indices& c, int nu, double u, bool eh) {
-  const double w = w_of(c.v, u);
+// EH takes the larger root X_+ and HE the smaller X_−. Everything is scaled by W²/V² (X̂ = X W²/V²
+// etc.) so that nothing overflows as W → 0, X_− = (n2² Y² − R)/(n1² X_+) avoids the cancellation
+// of the textbook ± form, and n2² Y² − R is expanded so that its 1/W⁴ terms cancel exactly
+// ((β/k)² = n2² + (n1² − n2²) W²/V²):
+//   (n2² Y² − R) W⁴/V⁴ / W² = n2² (U⁴/V⁴)(q/W²)(2ν + q) − ν² n2² (W² + 2U²)/V⁴ − ν² (n1² − n2²)/V².
+double hybrid_function(const Indices& c, int nu, double u, double w, bool eh) {
   const double p = u * bessel::j_ratio(nu, u);
   if (!std::isfinite(p)) return p;  // at a pole
-  const double q = w * bessel::k_ratio(nu, w);
-  const double t = (u * u) / (w * w);
+  const double kr = bessel::k_ratio(nu, w);  // q = W kr
+  const double q = w * kr;
+  const double v2 = c.v * c.v, u2v = (u * u) / v2, w2v = (w * w) / v2;
   const double nu2 = static_cast<double>(nu) * nu;
-  const double y = -t * (q + nu);
-  const double nb2 = c.n2sq + c.delta * (w * w) / (c.v * c.v);
-  const double vw2 = (c.v * c.v) / (w * w);
-  const double r = nu2 * nb2 * vw2 * vw2;
-  const double s = std::sqrt(c.delta * c.delta * y * y + 4.0 * c.n1sq * r);
-  const double x_plus = (-(c.n1sq + c.n2sq) * y + s) / (2.0 * c.n1sq);
-  if (eh) return p - nu - x_plus;
-  const double d = c.n2sq * t * t * q * (2.0 * nu + q) - nu2 * c.n2sq * (1.0 + 2.0 * t) -
-                   nu2 * c.delta * vw2;
-  const double x_minus = d / (c.n1sq * x_plus);
+  const double y_hat = -u2v * (q + nu);
+  const double r_hat = nu2 * (c.n2sq + c.delta * w2v);
+  const double s = std::sqrt(c.delta * c.delta * y_hat * y_hat + 4.0 * c.n1sq * r_hat);
+  const double x_plus_hat = (-(c.n1sq + c.n2sq) * y_hat + s) / (2.0 * c.n1sq);
+  if (eh) return p - nu - x_plus_hat / w2v;
+  const double d_hat_over_w2 = c.n2sq * u2v * u2v * (kr / w) * (2.0 * nu + q) -
+                               nu2 * c.n2sq * (w2v + 2.0 * u2v) / v2 - nu2 * c.delta / v2;
+  const double x_minus = d_hat_over_w2 * v2 / (c.n1sq * x_plus_hat);
   return p - nu - x_minus;
 }
 
-double function_at(const Indices& c, ModeFamily family, int nu, double u) {
-  const double w = w_of(c.v, u);
+// h(U) of (family, nu); W is passed in so that a root near cutoff can be refined in W (U = V
+// loses W to rounding once W < sqrt(eps) V).
+double function_at(const Indices& c, ModeFamily family, int nu, double u, double w) {
   switch (family) {
     case ModeFamily::TE:  // J1/(U J0) + K1/(W K0) = 0, inverted: U J0/J1 + W K0/K1 = 0
       return u * bessel::j_ratio(1, u) + w * bessel::k_ratio(1, w);
@@ -81,10 +82,14 @@ double function_at(const Indices& c, ModeFamily family, int nu, double u) {
         return -u / bessel::j_ratio(1, u) + w / bessel::k_ratio(1, w);
       }
       return u * bessel::j_ratio(nu, u) + w * bessel::k_ratio(nu, w);
-    case ModeFamily::HE: return hybrid_function(c, nu, u, false);
-    case ModeFamily::EH: return hybrid_function(c, nu, u, true);
+    case ModeFamily::HE: return hybrid_function(c, nu, u, w, false);
+    case ModeFamily::EH: return hybrid_function(c, nu, u, w, true);
   }
   return std::numeric_limits<double>::quiet_NaN();
+}
+
+double function_at(const Indices& c, ModeFamily family, int nu, double u) {
+  return function_at(c, family, nu, u, w_of(c.v, u));
 }
 
 // lim h(U) as U → V⁻ (W → 0), from W K_{ν−1}/K_ν → 0 (A&S 9.6.9): finite for TE, TM, LP and
@@ -106,7 +111,11 @@ double function_at_v(const Indices& c, ModeFamily family, int nu) {
 // Roots of h in (0, V): each branch between consecutive poles is sampled at Chebyshev-clustered
 // points (dense near both ends, where near-cutoff roots and poles sit), with the exact end values
 // (+inf right of a pole, −inf left of one, the limit at V), and each sign change refined by Brent.
-std::vector<double> roots_in_u(const Indices& c, ModeFamily family, int nu, int samples) {
+struct Root {
+  double u, w;
+};
+
+std::vector<Root> roots_in_u(const Indices& c, ModeFamily family, int nu, int samples) {
   const double v = c.v;
   std::vector<double> ends{0.0};
   for (double z : bessel::j_zeros(pole_order(family, nu), v)) {
@@ -114,7 +123,17 @@ std::vector<double> roots_in_u(const Indices& c, ModeFamily family, int nu, int 
   }
   ends.push_back(v);
   auto h = [&](double u) { return function_at(c, family, nu, u); };
-  std::vector<double> roots;
+  // Near cutoff (W ≪ U) the root is refined again in W, with U = sqrt((V − W)(V + W)), so that
+  // W, b = W²/V² and n_eff − n_clad keep full relative precision.
+  auto h_of_w = [&](double w) { return function_at(c, family, nu, w_of(v, w), w); };
+  auto refine = [&](double ua, double ub, double fa, double fb) {
+    const double u = brent_root(h, ua, ub, fa, fb);
+    const double w = w_of(v, u);
+    if (w > 0.25 * u) return Root{u, w};
+    const double wr = brent_root(h_of_w, w_of(v, ub), w_of(v, ua), fb, fa);
+    return Root{w_of(v, wr), wr};
+  };
+  std::vector<Root> roots;
   for (std::size_t i = 0; i + 1 < ends.size(); ++i) {
     const double lo = ends[i], hi = ends[i + 1];
     const bool last = (i + 2 == ends.size());
@@ -146,15 +165,15 @@ std::vector<double> roots_in_u(const Indices& c, ModeFamily family, int nu, int 
                                " is not a number near U = " + std::to_string(us[k]));
       }
       if (hs[k] == 0.0) {
-        if (k > 0) roots.push_back(us[k]);
+        if (k > 0) roots.push_back({us[k], w_of(v, us[k])});
         continue;
       }
       if ((hs[k] > 0) != (hs[k + 1] > 0) && hs[k + 1] != 0.0) {
-        roots.push_back(brent_root(h, us[k], us[k + 1], hs[k], hs[k + 1]));
+        roots.push_back(refine(us[k], us[k + 1], hs[k], hs[k + 1]));
       }
     }
   }
-  std::sort(roots.begin(), roots.end());
+  std::sort(roots.begin(), roots.end(), [](const Root& a, const Root& b) { return a.u < b.u; });
   return roots;
 }
 
@@ -220,7 +239,7 @@ std::vector<StepIndexMode> family_modes(const StepIndexFibre& fibre, const Indic
   const auto cutoffs = cutoffs_of(c, family, nu, v * (1.0 + 1e-12));
   const auto n_certain = static_cast<std::size_t>(
       std::count_if(cutoffs.begin(), cutoffs.end(), [&](double x) { return x < v * (1.0 - 1e-12); }));
-  std::vector<double> roots;
+  std::vector<Root> roots;
   bool consistent = false;
   for (int samples : {16, 64, 256}) {
     roots = roots_in_u(c, family, nu, samples);
@@ -244,9 +263,9 @@ std::vector<StepIndexMode> family_modes(const StepIndexFibre& fibre, const Indic
     mode.nu = nu;
     mode.m = static_cast<int>(i) + 1;
     mode.label = mode_label(family, nu, mode.m);
-    mode.u = roots[i];
-    mode.w = w_of(v, mode.u);
-    mode.b = (v - mode.u) * (v + mode.u) / (v * v);
+    mode.u = roots[i].u;
+    mode.w = roots[i].w;
+    mode.b = (mode.w / v) * (mode.w / v);
     mode.n_eff = std::sqrt(c.n2sq + c.delta * mode.b);
     mode.beta = k0 * mode.n_eff;
     mode.cutoff_v = cutoffs[i];
