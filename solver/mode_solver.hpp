@@ -47,7 +47,7 @@ struct SolveRequest {
   double imag_tolerance = 1e-6;         ///< |Im θ|/|θ| above it: complex pair, not a guided mode
   double degeneracy_tolerance = 1e-6;   ///< relative n_eff gap under which two modes form a pair
   int max_eigenvalues = 400;            ///< cap of the widening search
-  double arnoldi_tolerance = 1e-12;     ///< Spectra convergence tolerance on θ
+  double arnoldi_tolerance = 1e-10;     ///< Spectra convergence tolerance on θ
 };
 
 enum class EigenStatus {
