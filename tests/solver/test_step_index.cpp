@@ -215,7 +215,9 @@ TEST(StepIndex, LargeVModeCountApproachesGlogeAndNoModeIsMissedOrDuplicated) {
       EXPECT_GT(m.n_eff, f.n_clad);
       EXPECT_LT(m.n_eff, f.n_core);
       EXPECT_LT(m.cutoff_v, 60.0);
-      if (i > 0) EXPECT_GE((*set)[i - 1].n_eff, m.n_eff);
+      if (i > 0) {
+        EXPECT_GE((*set)[i - 1].n_eff, m.n_eff);
+      }
       const int c = ++count[{static_cast<int>(m.family), m.nu}];
       EXPECT_EQ(m.m, c) << m.label;  // sorted by n_eff, radial orders come out 1, 2, ...
     }
