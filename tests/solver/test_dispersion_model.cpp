@@ -5,6 +5,7 @@
 // table sampled from the Malitson 1965 formula, and the range and input errors.
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <cmath>
 #include <functional>
 #include <string>
@@ -263,8 +264,7 @@ TEST(DispersionModel, OutOfRangeErrorNamesMaterialSourceAndRange) {
 }
 
 TEST(DispersionModel, BadCoefficientsAndTablesAreInputErrors) {
-  // A pole inside the range: form B coefficients given as form A put a resonance at 0.0684² µm²
-  // -> fine, but C = 1.0 µm inside 0.5–2 is rejected.
+  // A resonance inside the validity range (form A, C = 1.0 µm, range 0.5–2 µm) is rejected.
   EXPECT_NE(error_text([] {
               sellmeier_model("bad", "", {SellmeierForm::resonance_wavelength, {{0.5, 1.0}}},
                               {0.5, 2.0});
