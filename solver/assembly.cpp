@@ -14,7 +14,23 @@ namespace {
 constexpr int kChunk = 256;  // elements per triplet list; fixed so results do not depend on threads
 
 template <typename Scalar, int Order>
-void assemble_chunk(const DofMap& dofs, const std::vector<MaterialTensors<Scalar>>& tensors,
+WaveguideElementMatrices<Scalar, Order> element_matrices(const ElementGeometry& g,
+                                                         const MaterialTensors<Scalar>& tensors,
+                                                         double k0, const QuadratureRule& rule) {
+  return waveguide_element_matrices<Scalar, Order>(g, tensors, k0, rule);
+}
+
+template <typename Scalar, int Order>
+WaveguideElementMatrices<Scalar, Order> element_matrices(const ElementGeometry& g,
+                                                         const RegionMedium<Scalar>& medium,
+                                                         double k0, const QuadratureRule& rule) {
+  if (!medium.at_point) return waveguide_element_matrices<Scalar, Order>(g, medium.tensors, k0, rule);
+  return waveguide_element_matrices_at<Scalar, Order>(
+      g, [&medium](const Eigen::Vector2d& x) { return medium.at_point(x); }, k0, rule);
+}
+
+template <typename Scalar, int Order, typename Media>
+void assemble_chunk(const DofMap& dofs, const std::vector<Media>& tensors,
                     double k0, int t_begin, int t_end,
                     std::vector<Eigen::Triplet<Scalar>>& ta, std::vector<Eigen::Triplet<Scalar>>& tb,
                     bool& inverted) {
@@ -29,8 +45,7 @@ void assemble_chunk(const DofMap& dofs, const std::vector<MaterialTensors<Scalar
     for (const auto& xi : rule.points) {
       if (!(map_point(g, xi).det > 0.0)) { inverted = true; return; }
     }
-    const Em em = waveguide_element_matrices<Scalar, Order>(
-        g, tensors[mesh.triangle_region[t]], k0, rule);
+    const Em em = element_matrices<Scalar, Order>(g, tensors[mesh.triangle_region[t]], k0, rule);
     dofs.element_dofs(t, index, sign);
     for (int i = 0; i < nt; ++i) {
       if (index[i] < 0) continue;
@@ -57,9 +72,8 @@ void assemble_chunk(const DofMap& dofs, const std::vector<MaterialTensors<Scalar
   }
 }
 
-template <typename Scalar, int Order>
-SystemMatrices<Scalar> assemble_order(const DofMap& dofs,
-                                      const std::vector<MaterialTensors<Scalar>>& tensors,
+template <typename Scalar, int Order, typename Media>
+SystemMatrices<Scalar> assemble_order(const DofMap& dofs, const std::vector<Media>& tensors,
                                       double k0) {
   const int n_t = dofs.mesh().n_triangles();
   const int n_chunks = (n_t + kChunk - 1) / kChunk;
@@ -68,7 +82,7 @@ SystemMatrices<Scalar> assemble_order(const DofMap& dofs,
 #pragma omp parallel for schedule(dynamic)
   for (int c = 0; c < n_chunks; ++c) {
     bool bad = false;
-    assemble_chunk<Scalar, Order>(dofs, tensors, k0, c * kChunk, std::min(n_t, (c + 1) * kChunk),
+    assemble_chunk<Scalar, Order, Media>(dofs, tensors, k0, c * kChunk, std::min(n_t, (c + 1) * kChunk),
                                   ta[c], tb[c], bad);
     inverted[c] = bad;
   }
@@ -113,22 +127,42 @@ ElementGeometry element_geometry(const Mesh& mesh, int t) {
   return g;
 }
 
+namespace {
+
+template <typename Scalar, typename Media>
+SystemMatrices<Scalar> assemble_media(const DofMap& dofs, const std::vector<Media>& media, double k0) {
+  if (media.size() != dofs.mesh().regions.size()) {
+    throw InputError("materials", "one material is needed per mesh region (" +
+                                      std::to_string(dofs.mesh().regions.size()) + "), got " +
+                                      std::to_string(media.size()));
+  }
+  return dofs.order() == 1 ? assemble_order<Scalar, 1, Media>(dofs, media, k0)
+                           : assemble_order<Scalar, 2, Media>(dofs, media, k0);
+}
+
+}  // namespace
+
 template <typename Scalar>
 SystemMatrices<Scalar> assemble_waveguide(const DofMap& dofs,
                                           const std::vector<MaterialTensors<Scalar>>& region_tensors,
                                           double k0) {
-  if (region_tensors.size() != dofs.mesh().regions.size()) {
-    throw InputError("materials", "one material is needed per mesh region (" +
-                                      std::to_string(dofs.mesh().regions.size()) + "), got " +
-                                      std::to_string(region_tensors.size()));
-  }
-  return dofs.order() == 1 ? assemble_order<Scalar, 1>(dofs, region_tensors, k0)
-                           : assemble_order<Scalar, 2>(dofs, region_tensors, k0);
+  return assemble_media<Scalar>(dofs, region_tensors, k0);
+}
+
+template <typename Scalar>
+SystemMatrices<Scalar> assemble_waveguide(const DofMap& dofs,
+                                          const std::vector<RegionMedium<Scalar>>& region_media,
+                                          double k0) {
+  return assemble_media<Scalar>(dofs, region_media, k0);
 }
 
 template SystemMatrices<double> assemble_waveguide<double>(
     const DofMap&, const std::vector<MaterialTensors<double>>&, double);
 template SystemMatrices<std::complex<double>> assemble_waveguide<std::complex<double>>(
     const DofMap&, const std::vector<MaterialTensors<std::complex<double>>>&, double);
+template SystemMatrices<double> assemble_waveguide<double>(
+    const DofMap&, const std::vector<RegionMedium<double>>&, double);
+template SystemMatrices<std::complex<double>> assemble_waveguide<std::complex<double>>(
+    const DofMap&, const std::vector<RegionMedium<std::complex<double>>>&, double);
 
 }  // namespace cladwise

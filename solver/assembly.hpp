@@ -11,6 +11,7 @@
 
 #include <Eigen/SparseCore>
 
+#include <functional>
 #include <vector>
 
 #include "mesh/mesh.hpp"
@@ -33,6 +34,26 @@ ElementGeometry element_geometry(const Mesh& mesh, int t);
 template <typename Scalar>
 SystemMatrices<Scalar> assemble_waveguide(const DofMap& dofs,
                                           const std::vector<MaterialTensors<Scalar>>& region_tensors,
+                                          double k0);
+
+/// Material tensors as a function of the position x (µm) inside a region. Must be thread-safe
+/// (assembly calls it from several threads).
+template <typename Scalar>
+using TensorField = std::function<MaterialTensors<Scalar>(const Eigen::Vector2d& x_um)>;
+
+/// The medium of one region: constant tensors, or tensors evaluated at every quadrature point
+/// when `at_point` is set (PML stretching, bend factors; the kernels' material-at-point hook).
+template <typename Scalar>
+struct RegionMedium {
+  MaterialTensors<Scalar> tensors;  ///< used when `at_point` is empty
+  TensorField<Scalar> at_point;     ///< position-dependent tensors; overrides `tensors`
+};
+
+/// Assembles A and B with per-region media, some of them position-dependent. With every
+/// `at_point` empty the result is identical to the overload above.
+template <typename Scalar>
+SystemMatrices<Scalar> assemble_waveguide(const DofMap& dofs,
+                                          const std::vector<RegionMedium<Scalar>>& region_media,
                                           double k0);
 
 }  // namespace cladwise

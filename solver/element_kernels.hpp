@@ -99,6 +99,18 @@ MaterialTensors<Scalar> material_tensors(const BasicMaterial<Scalar>& m) {
   return t;
 }
 
+/// Tensors of a general (complex, full in-plane) medium, docs/formulation.md §8 eq. (L4):
+/// ν_t = R⁻¹ μ_t⁻¹ R with R the 90° rotation (−ẑ×u), which is μ_tᵀ / det μ_t; ν_zz = 1/μ_zz.
+/// For diagonal μ this is diag(1/μ_yy, 1/μ_xx), as in eq. 8.
+inline MaterialTensors<std::complex<double>> material_tensors(const TensorMaterial& m) {
+  MaterialTensors<std::complex<double>> t;
+  t.eps_t = m.eps_t;
+  t.eps_zz = m.eps_zz;
+  t.nu_t = m.mu_t.transpose() / m.mu_t.determinant();
+  t.nu_zz = 1.0 / m.mu_zz;
+  return t;
+}
+
 /// Element blocks of  [A_tt 0; 0 0] x = −β² [B_tt B_tz; B_zt B_zz] x  (formulation.md eq. 9–12).
 template <typename Scalar, int Order>
 struct WaveguideElementMatrices {
@@ -113,11 +125,13 @@ struct WaveguideElementMatrices {
 /// Quadrature degree the solver uses for order-p elements: 2p + 2.
 constexpr int kernel_quadrature_degree(int order) { return 2 * order + 2; }
 
-/// Integrates the four blocks on one element. k0 in 1/µm, geometry in µm.
-template <typename Scalar, int Order>
-WaveguideElementMatrices<Scalar, Order> waveguide_element_matrices(
-    const ElementGeometry& geometry, const MaterialTensors<Scalar>& mat, double k0,
-    const QuadratureRule& rule) {
+/// Integrates the four blocks on one element with position-dependent tensors: `tensors_at(x)` is
+/// called at every quadrature point x (µm) and returns the MaterialTensors there (or a reference
+/// to them). This is the hook for media that vary inside an element: the complex stretching of a
+/// PML (solver/pml.hpp) and the (1 + x/R) factors of a bend (solver/bend.hpp).
+template <typename Scalar, int Order, typename TensorsAt>
+WaveguideElementMatrices<Scalar, Order> waveguide_element_matrices_at(
+    const ElementGeometry& geometry, TensorsAt&& tensors_at, double k0, const QuadratureRule& rule) {
   using Ned = NedelecTriangle<Order>;
   using Lag = LagrangeTriangle<Order>;
   WaveguideElementMatrices<Scalar, Order> em;
@@ -134,25 +148,36 @@ WaveguideElementMatrices<Scalar, Order> waveguide_element_matrices(
     const Eigen::Vector2d& xi = rule.points[q];
     const MappedPoint m = map_point(geometry, xi);
     assert(m.det > 0.0 && "inverted or clockwise element");
+    const MaterialTensors<Scalar>& mat = tensors_at(m.x);
     edge_basis<Order>(m, xi, n, curl);
     nodal_basis<Order>(m, xi, l, grad_l);
     const double dx = rule.weights[q] * m.det;  // dΩ = |J| dξ dη
     const auto nc = n.template cast<Scalar>();
     const auto gc = grad_l.template cast<Scalar>();
     const auto lc = l.template cast<Scalar>();
-    // ν_zz (∇_t×N_i)(∇_t×N_j) − k0² N_i·ε_t N_j      (eq. 9)
+    // ν_zz (∇_t×N_i)(∇_t×N_j) − k0² N_i·ε_t N_j      (eq. 9; ε_t full 2×2, N in physical x, y)
     em.a_tt.noalias() += (Scalar(dx) * mat.nu_zz) * (curl.transpose() * curl).template cast<Scalar>();
     em.a_tt.noalias() -= Scalar(dx * k0_sq) * (nc.transpose() * (mat.eps_t * nc));
     // N_i·ν_t N_j                                      (eq. 10)
     const Eigen::Matrix<Scalar, 2, Ned::n_functions> nu_n = mat.nu_t * nc;
     em.b_tt.noalias() += Scalar(dx) * (nc.transpose() * nu_n);
-    // N_i·ν_t ∇_t L_j                                  (eq. 11)
+    // N_i·ν_t ∇_t L_j  (ν_t symmetric for symmetric μ_t, so B_zt = B_tzᵀ)      (eq. 11)
     em.b_tz.noalias() += Scalar(dx) * (nu_n.transpose() * gc);
     // ∇_t L_i·ν_t ∇_t L_j − k0² ε_zz L_i L_j            (eq. 12)
     em.b_zz.noalias() += Scalar(dx) * (gc.transpose() * (mat.nu_t * gc));
     em.b_zz.noalias() -= (Scalar(dx * k0_sq) * mat.eps_zz) * (lc * lc.transpose());
   }
   return em;
+}
+
+/// Integrates the four blocks on one element with constant tensors. k0 in 1/µm, geometry in µm.
+template <typename Scalar, int Order>
+WaveguideElementMatrices<Scalar, Order> waveguide_element_matrices(
+    const ElementGeometry& geometry, const MaterialTensors<Scalar>& mat, double k0,
+    const QuadratureRule& rule) {
+  return waveguide_element_matrices_at<Scalar, Order>(
+      geometry, [&mat](const Eigen::Vector2d&) -> const MaterialTensors<Scalar>& { return mat; },
+      k0, rule);
 }
 
 }  // namespace cladwise
