@@ -7,43 +7,13 @@
 #include <set>
 #include <sstream>
 
+#include "io/json_writer.hpp"
 #include "mesh/error.hpp"
 
 namespace cladwise::io {
 namespace {
 
-// Shortest text that reads back to the same double (17 significant digits at most).
-std::string number(double v) {
-  if (!std::isfinite(v)) return "null";  // JSON has no NaN; a missing metric reads as null
-  char buf[40];
-  for (int digits = 15; digits <= 17; ++digits) {
-    std::snprintf(buf, sizeof buf, "%.*g", digits, v);
-    if (std::strtod(buf, nullptr) == v) break;
-  }
-  return buf;
-}
-
-std::string json_string(const std::string& s) {
-  std::string out = "\"";
-  for (const unsigned char c : s) {
-    switch (c) {
-      case '"': out += "\\\""; break;
-      case '\\': out += "\\\\"; break;
-      case '\n': out += "\\n"; break;
-      case '\t': out += "\\t"; break;
-      case '\r': out += "\\r"; break;
-      default:
-        if (c < 0x20) {
-          char buf[8];
-          std::snprintf(buf, sizeof buf, "\\u%04x", c);
-          out += buf;
-        } else {
-          out += static_cast<char>(c);
-        }
-    }
-  }
-  return out + "\"";
-}
+std::string number(double v) { return JsonWriter::number(v); }
 
 std::string csv_field(const std::string& s) {
   if (s.find_first_of(",\"\n") == std::string::npos) return s;
@@ -61,29 +31,30 @@ double loss_db_per_m(double n_eff_imag, double wavelength_um) {
 
 std::string modes_json(const RunResult& r) {
   std::ostringstream o;
-  o << "{\n  \"program\": {\"name\": \"cladwise\", \"version\": \"" << CLADWISE_VERSION << "\"},\n"
-    << "  \"case\": " << json_string(r.case_path) << ",\n"
-    << "  \"mesh\": {\"triangles\": " << r.n_triangles << ", \"order\": " << r.order
-    << ", \"dofs\": " << r.n_dofs << "},\n  \"points\": [";
-  for (std::size_t p = 0; p < r.points.size(); ++p) {
-    const auto& pt = r.points[p];
-    o << (p ? ",\n" : "\n") << "    {\n      \"wavelength_um\": " << number(pt.wavelength_um)
-      << ",\n      \"modes\": [";
-    for (std::size_t m = 0; m < pt.modes.size(); ++m) {
-      const auto& row = pt.modes[m];
-      o << (m ? ",\n" : "\n") << "        {\"n_eff\": " << number(row.n_eff)
-        << ", \"n_eff_imag\": " << number(row.n_eff_imag)
-        << ", \"loss_db_per_m\": " << number(row.loss_db_per_m)
-        << ", \"label\": " << json_string(row.label) << ", \"residual\": " << number(row.residual);
-      for (const auto& [key, value] : row.metrics) o << ", " << json_string(key) << ": " << number(value);
-      o << "}";
+  JsonWriter j(o);
+  j.begin_object();
+  j.key("program").begin_object().key("name").value("cladwise").key("version").value(CLADWISE_VERSION).end_object();
+  j.key("case").value(r.case_path);
+  j.key("mesh").begin_object().key("triangles").value(r.n_triangles).key("order").value(r.order)
+      .key("dofs").value(r.n_dofs).end_object();
+  j.key("points").begin_array();
+  for (const auto& pt : r.points) {
+    j.begin_object().key("wavelength_um").value(pt.wavelength_um).key("modes").begin_array();
+    for (const auto& row : pt.modes) {
+      j.begin_object();
+      j.key("n_eff").value(row.n_eff).key("n_eff_imag").value(row.n_eff_imag);
+      j.key("loss_db_per_m").value(row.loss_db_per_m).key("label").value(row.label);
+      j.key("residual").value(row.residual);
+      for (const auto& [key, value] : row.metrics) j.key(key).value(value);
+      j.end_object();
     }
-    o << (pt.modes.empty() ? "]\n    }" : "\n      ]\n    }");
+    j.end_array().end_object();
   }
-  o << "\n  ],\n  \"timing_s\": {\"mesh\": " << number(r.mesh_s) << ", \"assembly\": "
-    << number(r.assembly_s) << ", \"factorization\": " << number(r.factorization_s)
-    << ", \"eigensolve\": " << number(r.eigensolve_s) << ", \"total\": " << number(r.total_s)
-    << "}\n}\n";
+  j.end_array();
+  j.key("timing_s").begin_object().key("mesh").value(r.mesh_s).key("assembly").value(r.assembly_s)
+      .key("factorization").value(r.factorization_s).key("eigensolve").value(r.eigensolve_s)
+      .key("total").value(r.total_s).end_object();
+  j.end_object();
   return o.str();
 }
 
