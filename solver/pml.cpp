@@ -49,20 +49,20 @@ void validate(const Pml& p) {
   }
 }
 
-double pml_strength_for_reflection(double reflection, double k0, double n, double thickness,
+double pml_strength_for_reflection(double reflection, double k_normal, double thickness,
                                    int power) {
   if (!(reflection > 0.0 && reflection < 1.0)) {
     throw InputError("pml.reflection", "target reflection must lie in (0, 1), got " +
                                            std::to_string(reflection));
   }
-  if (!(k0 > 0.0 && n > 0.0 && thickness > 0.0)) {
-    throw InputError("pml.thickness", "k0, n and the thickness must be positive");
+  if (!(k_normal > 0.0 && thickness > 0.0)) {
+    throw InputError("pml.thickness", "the normal wavenumber and the thickness must be positive");
   }
-  return (power + 1.0) * std::log(1.0 / reflection) / (2.0 * k0 * n * thickness);
+  return (power + 1.0) * std::log(1.0 / reflection) / (2.0 * k_normal * thickness);
 }
 
-double pml_theoretical_reflection(const Pml& p, double k0, double n) {
-  return std::exp(-2.0 * k0 * n * p.strength * p.thickness / (p.power + 1.0));
+double pml_theoretical_reflection(const Pml& p, double k_normal) {
+  return std::exp(-2.0 * k_normal * p.strength * p.thickness / (p.power + 1.0));
 }
 
 Eigen::Matrix2cd pml_stretch_jacobian(const Pml& p, const Eigen::Vector2d& x) {

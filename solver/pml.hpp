@@ -17,11 +17,11 @@
 // For isotropic ε these give the familiar ε' = ε diag(s_y/s_x, s_x/s_y, s_x s_y) and, in the
 // (r, φ, z) frame, ε' = ε diag(s_φ/s_r, s_r/s_φ, s_r s_φ).
 //
-// Strength: a plane wave of index n at normal incidence crossing the layer twice (PEC backing)
-// returns with the theoretical reflection R = exp(−2 k0 n σ_max t/(m+1)). A leaky mode meets the
-// layer at grazing incidence with a transverse wavenumber k0 sqrt(n² − n_eff²) ≪ k0 n, so its
-// true attenuation is weaker than this R suggests: prefer σ_max of a few units for leaky fibres
-// and check stability under a change of σ_max (ComplexModeSolver can do that).
+// Strength: a wave exp(−j k_n ρ̃) with wavenumber k_n normal to the layer, crossing it twice
+// (PEC backing), returns with the theoretical reflection R = exp(−2 k_n σ_max t/(m+1)). For a
+// plane wave at normal incidence k_n = k0 n; a leaky mode meets the layer at grazing incidence
+// with k_n = k0 sqrt(n² − n_eff²) ≪ k0 n, so σ_max must be larger (several units) than the
+// plane-wave estimate suggests. Check stability under a change of σ_max (ComplexModeSolver can).
 #pragma once
 
 #include <Eigen/Core>
@@ -54,13 +54,15 @@ struct Pml {
 /// inner circle or rectangle is positive.
 void validate(const Pml& pml);
 
-/// σ_max giving the theoretical normal-incidence reflection `reflection` (0 < R < 1) for a plane
-/// wave of index n: σ_max = (m + 1) ln(1/R) / (2 k0 n t).
-double pml_strength_for_reflection(double reflection, double k0, double n, double thickness,
+/// σ_max giving the theoretical reflection `reflection` (0 < R < 1) for a wave of normal
+/// wavenumber k_normal (1/µm; k0 n for a plane wave at normal incidence, k0 sqrt(n² − n_eff²) for a
+/// leaky mode): σ_max = (m + 1) ln(1/R) / (2 k_normal t).
+double pml_strength_for_reflection(double reflection, double k_normal, double thickness,
                                    int power = 2);
 
-/// The theoretical normal-incidence reflection exp(−2 k0 n σ_max t/(m+1)) of `pml`.
-double pml_theoretical_reflection(const Pml& pml, double k0, double n);
+/// The theoretical reflection exp(−2 k_normal σ_max t/(m+1)) of `pml` for normal wavenumber
+/// k_normal (1/µm).
+double pml_theoretical_reflection(const Pml& pml, double k_normal);
 
 /// J_t = ∂x̃/∂x at the point x (µm); the identity inside the inner circle or rectangle.
 Eigen::Matrix2cd pml_stretch_jacobian(const Pml& pml, const Eigen::Vector2d& x);
