@@ -40,8 +40,9 @@ cmake --build build --parallel "$jobs" >&2
 
 case "$mode" in
   demo)
-    # Demo scenario of our own: a few-mode step-index fibre for 1.55 um work.
-    ./build/cladwise step-index --n-core 1.4560 --n-clad 1.4440 --radius-um 5.0 --wavelength-um 1.55
+    # Demo scenario of our own: an elliptical-core polarisation-maintaining fibre, solved end to
+    # end (mesh, full-vector FEM, eigensolve, results and fields in cases/elliptical_core.out/).
+    ./build/cladwise solve cases/elliptical_core.toml
     ;;
   test)
     ctest --test-dir build --output-on-failure --parallel "$jobs" --timeout 600
