@@ -25,7 +25,7 @@ double seconds_since(std::chrono::steady_clock::time_point t0) {
 // Multipole-method value, White et al. JOSA B 19, 2322 (2002) via checks.md §3.
 constexpr double kPcfRe = 1.445395345, kPcfIm = 3.150e-8;
 
-int bench_pcf(double h_scale, bool full, double r_phys, double t_pml, double strength) {
+int bench_pcf(double h_scale, bool full, double r_phys, double t_pml, double strength, bool y_pol = false) {
   const auto t0 = std::chrono::steady_clock::now();
   const CrossSection s = six_hole_fibre(r_phys, t_pml, 0.5 * h_scale, 0.35 * h_scale, 0.8 * h_scale,
                                         full ? SymmetryCut::none : SymmetryCut::quarter);
@@ -37,7 +37,8 @@ int bench_pcf(double h_scale, bool full, double r_phys, double t_pml, double str
                                                 {"air", complex_index_material(1.0, 0.0)}});
   p.wavelength_um = 1.45;
   p.order = 2;
-  p.boundary_walls = walls(mesh, WallType::electric, WallType::magnetic, WallType::electric);
+  p.boundary_walls = y_pol ? walls(mesh, WallType::electric, WallType::electric, WallType::magnetic)
+                          : walls(mesh, WallType::electric, WallType::magnetic, WallType::electric);
   Pml pml;
   pml.shape = PmlShape::cylindrical;
   pml.inner_radius = r_phys;
@@ -72,6 +73,7 @@ int main(int argc, char** argv) {
   const double r_phys = argc > 3 ? std::atof(argv[3]) : 11.0;
   const double t_pml = argc > 4 ? std::atof(argv[4]) : 4.0;
   const double sigma = argc > 5 ? std::atof(argv[5]) : 8.0;
+  if (what == "pcf-y") return bench_pcf(h, false, r_phys, t_pml, sigma, true);
   if (what == "pcf" || what == "pcf-full") return bench_pcf(h, what == "pcf-full", r_phys, t_pml, sigma);
   std::fprintf(stderr, "usage: bench_leaky pcf|pcf-full|bend [h_scale R t sigma]\n");
   return 2;
