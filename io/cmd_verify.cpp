@@ -37,8 +37,8 @@ CaseSpec fibre_case(const FibreCase& fc) {
   c.path = "verify:" + fc.name;
   c.title = fc.name;
   c.wavelength_um = fc.fibre.wavelength_um;
-  c.materials = {MaterialSpec{"cladding", fc.fibre.n_clad, std::nullopt, "verify"},
-                 MaterialSpec{"core", fc.fibre.n_core, std::nullopt, "verify"}};
+  c.materials = {constant_index_material("cladding", fc.fibre.n_clad, "verify"),
+                 constant_index_material("core", fc.fibre.n_core, "verify")};
   auto& g = c.geometry;
   g.background_material = "cladding";
   g.outer.kind = OuterBoundary::Kind::disk;
