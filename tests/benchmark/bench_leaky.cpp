@@ -65,6 +65,38 @@ int bench_pcf(double h_scale, bool full, double r_phys, double t_pml, double str
   return 0;
 }
 
+int bench_bend(double r_phys, double t_pml, double strength, double h_clad) {
+  const StepIndexFibre f{1.4494, 1.4440, 4.1, 1.55};
+  double prev_fem = 0, prev_ref = 0, prev_r = 0;
+  for (double r_mm : {5.0, 7.5, 10.0, 12.5, 15.0}) {
+    const double r_um = r_mm * 1000;
+    const auto t0 = std::chrono::steady_clock::now();
+    int dofs = 0;
+    const LeakyMode m = bent_fibre_mode(r_um, r_phys, t_pml, strength, 0.6, h_clad,
+                                        BendModel::exact_transformation, &dofs);
+    const double t = seconds_since(t0);
+    const LeakyMode c = bent_fibre_mode(r_um, r_phys, t_pml, strength, 0.6, h_clad, BendModel::conformal_index);
+    const double ref = marcuse_loss_db_per_m(f, r_um);
+    std::printf("bend R %5.1f mm dofs %d: n_eff %.9f %+.3e loss %.4g dB/m (%.4g dB/turn, %.4g dB/90deg) "
+                "conformal %.4g  Marcuse %.4g  ratio %.3f  phys %.4f  %.1fs",
+                r_mm, dofs, m.n_eff.real(), m.n_eff.imag(), m.loss_db_per_m,
+                bend_loss_db(m.loss_db_per_m, r_um, 2 * std::numbers::pi),
+                bend_loss_db(m.loss_db_per_m, r_um, std::numbers::pi / 2), c.loss_db_per_m, ref,
+                m.loss_db_per_m / ref, m.physical_fraction, t);
+    if (prev_r > 0) {
+      const double slope_fem = std::log(m.loss_db_per_m / prev_fem) / (r_um - prev_r);
+      const double slope_ref = std::log(ref / prev_ref) / (r_um - prev_r);
+      std::printf("  slope FEM %.4e ref %.4e /um (ratio %.3f)", slope_fem, slope_ref, slope_fem / slope_ref);
+    }
+    std::printf("\n");
+    std::fflush(stdout);
+    prev_fem = m.loss_db_per_m;
+    prev_ref = ref;
+    prev_r = r_um;
+  }
+  return 0;
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
@@ -73,6 +105,7 @@ int main(int argc, char** argv) {
   const double r_phys = argc > 3 ? std::atof(argv[3]) : 11.0;
   const double t_pml = argc > 4 ? std::atof(argv[4]) : 4.0;
   const double sigma = argc > 5 ? std::atof(argv[5]) : 8.0;
+  if (what == "bend") return bench_bend(argc > 3 ? r_phys : 30.0, argc > 4 ? t_pml : 6.0, argc > 5 ? sigma : 10.0, h);
   if (what == "pcf-y") return bench_pcf(h, false, r_phys, t_pml, sigma, true);
   if (what == "pcf" || what == "pcf-full") return bench_pcf(h, what == "pcf-full", r_phys, t_pml, sigma);
   std::fprintf(stderr, "usage: bench_leaky pcf|pcf-full|bend [h_scale R t sigma]\n");

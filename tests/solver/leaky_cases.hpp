@@ -2,13 +2,16 @@
 // test_complex_*, test_bend_*, tests/benchmark/bench_leaky.cpp), built with the Gmsh mesher.
 #pragma once
 
+#include <cmath>
 #include <map>
+#include <numbers>
 #include <string>
 #include <vector>
 
 #include "mesh/cross_section.hpp"
 #include "mesh/gmsh_mesher.hpp"
 #include "solver/complex_mode_solver.hpp"
+#include "solver/step_index.hpp"
 
 namespace cladwise::testing {
 
@@ -83,6 +86,53 @@ inline CrossSection step_index_fibre(double radius, double r_phys, double t_pml,
   s.controls.default_size = h_clad;
   s.controls.growth = 1.2;
   return s;
+}
+
+/// Curvature loss of LP01 in the step-profile form of Snyder & Love ("Optical Waveguide Theory",
+/// ch. 23; from memory, checks.md §5), equivalent under weak guidance to Marcuse's formula
+/// (D. Marcuse, JOSA 66, 216 (1976)) and the form the checks.md §5 table is computed from:
+///   γ_b = (√π/2) (1/ρ) (ρ/R)^{1/2} U² / (V² W^{3/2} K₁²(W)) exp[−(4/3)(R/ρ) Δ W³/V²]
+/// (power attenuation coefficient, 1/µm). Returns dB/m; R in µm.
+inline double marcuse_loss_db_per_m(const StepIndexFibre& f, double radius_um) {
+  const auto lp = solve_lp_modes(f);
+  const double rho = f.radius_um, u = lp.at(0).u, w = lp.at(0).w, v = f.v_number();
+  const double delta = f.relative_index_difference();
+  const double k1 = std::cyl_bessel_k(1.0, w);
+  const double gamma_b = std::sqrt(std::numbers::pi) / 2.0 / rho * std::sqrt(rho / radius_um) * u * u /
+                         (v * v * std::pow(w, 1.5) * k1 * k1) *
+                         std::exp(-4.0 / 3.0 * (radius_um / rho) * delta * w * w * w / (v * v));
+  return 10.0 / std::log(10.0) * gamma_b * 1e6;  // power coefficient 1/µm -> dB/m
+}
+
+/// Bend loss of the weakly guiding fibre (checks.md §5) by the exact bend transformation on a
+/// half domain (y >= 0, magnetic wall on y = 0: the x-polarised mode) with a cylindrical PML.
+inline LeakyMode bent_fibre_mode(double bend_radius_um, double r_phys, double t_pml, double strength,
+                                 double h_core, double h_clad, BendModel model, int* n_dofs = nullptr) {
+  const Mesh mesh = mesh_cross_section(step_index_fibre(4.1, r_phys, t_pml, h_core, h_clad, SymmetryCut::half_upper));
+  LeakyModeProblem p;
+  p.mesh = &mesh;
+  p.region_materials = materials_by_name(
+      mesh, {{"core", complex_index_material(1.4494, 0.0)}, {"cladding", complex_index_material(1.4440, 0.0)}});
+  p.wavelength_um = 1.55;
+  p.order = 2;
+  p.boundary_walls = walls(mesh, WallType::electric, WallType::magnetic, WallType::electric);
+  Pml pml;
+  pml.inner_radius = r_phys;
+  pml.thickness = t_pml;
+  pml.strength = strength;
+  p.pml = pml;
+  Bend bend;
+  bend.radius_um = bend_radius_um;
+  bend.model = model;
+  p.bend = bend;
+  ComplexModeSolver s(p);
+  LeakySolveRequest q;
+  q.n_modes = 1;
+  q.n_target = 1.4464;  // near the straight fibre's LP01 (1.44638): the outer side of a tight bend
+                        // also holds whispering-gallery modes of higher Re n_eff
+  const LeakySolveResult r = s.solve(q);
+  if (n_dofs) *n_dofs = r.n_dofs;
+  return r.modes.empty() ? LeakyMode{} : r.modes[0];
 }
 
 }  // namespace cladwise::testing
