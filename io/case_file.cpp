@@ -11,6 +11,7 @@
 #include <toml++/toml.h>
 
 #include "io/case_keys.hpp"
+#include "solver/material_catalogue.hpp"
 #include "mesh/error.hpp"
 
 namespace cladwise::io {
@@ -147,6 +148,37 @@ public:
     return out;
   }
 
+  std::optional<std::vector<double>> number_list(std::string_view key) {
+    const CaseKey& k = spec(key);
+    const toml::node* n = node(key);
+    if (!n) return std::nullopt;
+    const toml::array* arr = n->as_array();
+    if (!arr || arr->empty()) throw InputError(where(key), "must be a non-empty list of numbers, e.g. [0.696, 0.408]");
+    std::vector<double> out;
+    for (const auto& e : *arr) {
+      auto v = e.value<double>();
+      if (!v || e.is_boolean()) throw InputError(where(key), "every entry must be a number");
+      check_bound(k, *v, key);
+      out.push_back(*v);
+    }
+    return out;
+  }
+
+  /// A number (returned as one value) or a list of three.
+  std::optional<std::vector<double>> number_or_triple(std::string_view key) {
+    const CaseKey& k = spec(key);
+    const toml::node* n = node(key);
+    if (!n) return std::nullopt;
+    if (n->is_number()) {
+      const double v = *n->value<double>();
+      check_bound(k, v, key);
+      return std::vector<double>{v};
+    }
+    used_.erase(std::string(key));
+    auto v = numbers(key, 3);
+    return v;
+  }
+
   std::vector<Point2> points(std::string_view key) {
     spec(key);
     const toml::node* n = node(key);
@@ -243,31 +275,171 @@ WallKind wall_from(const std::string& s) {
   return s == "magnetic" ? WallKind::magnetic : WallKind::electric;
 }
 
-MaterialSpec read_material(const std::string& name, const toml::node& node, const std::string& file) {
+/// Columns wavelength_um, n[, k] of a CSV table; '#' starts a comment, a first line that is not
+/// numeric is a header.
+DispersionModel read_index_table(const std::string& name, const std::filesystem::path& csv,
+                                 const std::string& where, bool allow_extrapolation) {
+  std::ifstream in(csv);
+  if (!in) throw InputError(where, "cannot open the index table " + csv.string());
+  std::vector<double> lam, n, k;
+  std::string line;
+  int line_no = 0;
+  bool has_k = false;
+  while (std::getline(in, line)) {
+    ++line_no;
+    if (const auto hash = line.find('#'); hash != std::string::npos) line.erase(hash);
+    if (line.find_first_not_of(" \t\r,") == std::string::npos) continue;
+    std::vector<double> cols;
+    std::stringstream row(line);
+    std::string cell;
+    bool numeric = true;
+    while (std::getline(row, cell, ',')) {
+      char* end = nullptr;
+      const double v = std::strtod(cell.c_str(), &end);
+      while (end && (*end == ' ' || *end == '\t' || *end == '\r')) ++end;
+      if (cell.empty() || end == cell.c_str() || *end != '\0' || !std::isfinite(v)) numeric = false;
+      cols.push_back(v);
+    }
+    const std::string at = csv.string() + ":" + std::to_string(line_no);
+    if (!numeric) {
+      if (lam.empty() && line_no == 1) continue;  // header row
+      throw InputError(at, "expected numbers: wavelength_um, n[, k]");
+    }
+    if (cols.size() < 2 || cols.size() > 3) throw InputError(at, "expected 2 or 3 columns: wavelength_um, n[, k]");
+    if (lam.empty()) has_k = cols.size() == 3;
+    if ((cols.size() == 3) != has_k) throw InputError(at, "every row needs the same number of columns");
+    lam.push_back(cols[0]);
+    n.push_back(cols[1]);
+    if (has_k) k.push_back(cols[2]);
+  }
+  try {
+    auto m = tabulated_model(name, csv.filename().string(), lam, n, k);
+    return allow_extrapolation ? m.with_extrapolation() : m;
+  } catch (const InputError& e) {
+    throw InputError(csv.string(), e.what());
+  }
+}
+
+/// A material's own models (everything except a uniaxial crystal, which refers to others).
+MaterialSpec read_material(const std::string& name, const toml::node& node, const std::string& file,
+                           const std::filesystem::path& case_dir,
+                           const std::vector<MaterialSpec>* earlier = nullptr) {
   MaterialSpec m;
   m.name = name;
   m.where = file_line(file, node.source());
   const std::string label = "[materials] '" + name + "'";
+  const std::string at = m.where + " " + label;
   if (node.is_number()) {
     const double v = *node.value<double>();
-    if (!std::isfinite(v) || v <= 0) {
-      throw InputError(m.where + " " + label, "the refractive index must be a positive number");
-    }
-    m.index = v;
+    if (!std::isfinite(v) || v <= 0) throw InputError(at, "the refractive index must be a positive number");
+    m.models.push_back(constant_index_model(name, v));
     return m;
   }
   const toml::table* t = node.as_table();
-  if (!t) {
-    throw InputError(m.where + " " + label,
-                     "must be an index (e.g. 1.444) or a table such as { index = 1.444 }");
-  }
+  if (!t) throw InputError(at, "must be an index (e.g. 1.444) or a table such as { index = 1.444 } or { model = \"silica\" }");
   TableReader r(*t, "materials.NAME", label, file);
-  m.index = r.number("index");
-  if (auto eps = r.numbers("permittivity", 3)) m.permittivity = std::array{(*eps)[0], (*eps)[1], (*eps)[2]};
-  r.finish();
-  if (m.index.has_value() == m.permittivity.has_value()) {
-    throw InputError(m.where + " " + label, "give exactly one of 'index' or 'permittivity'");
+  const bool extrapolate = r.boolean("allow_extrapolation").value_or(false);
+  const auto range = [&](bool required) {
+    auto lo = r.number("valid_from_um");
+    auto hi = r.number("valid_to_um");
+    if (!lo || !hi) {
+      if (required) throw InputError(r.where(lo ? "valid_to_um" : "valid_from_um"), "a user fit needs its validity range: give valid_from_um and valid_to_um");
+      return WavelengthRange::unbounded();
+    }
+    if (!(*lo < *hi)) throw InputError(r.where("valid_to_um"), "must be greater than valid_from_um");
+    return WavelengthRange{*lo, *hi};
+  };
+  auto wrap = [&](auto&& make) {
+    try {
+      DispersionModel d = make();
+      return extrapolate ? d.with_extrapolation() : d;
+    } catch (const InputError& e) {
+      throw InputError(at, e.what());
+    }
+  };
+
+  int given = 0;
+  const auto index = r.number("index");
+  const auto kappa = r.number("extinction");
+  const auto eps = r.number_or_triple("permittivity");
+  const auto eps_loss = r.number_or_triple("permittivity_loss");
+  const auto model = r.text("model");
+  const auto mole = r.number("mole_fraction");
+  const auto sb = r.number_list("sellmeier_b");
+  const auto sc = r.number_list("sellmeier_c_um");
+  const auto sc2 = r.number_list("sellmeier_c_um2");
+  const auto cauchy = r.number_list("cauchy");
+  const auto table = r.text("table");
+  const auto ordinary = r.text("ordinary");
+  const auto extraordinary = r.text("extraordinary");
+  const auto axis_deg = r.number("optic_axis_deg");
+  const auto axis_z = r.boolean("optic_axis_along_z");
+  given = (index ? 1 : 0) + (eps ? 1 : 0) + (model ? 1 : 0) + (sb ? 1 : 0) + (cauchy ? 1 : 0) +
+          (table ? 1 : 0) + ((ordinary || extraordinary) ? 1 : 0);
+  if (given != 1) {
+    throw InputError(at, given == 0 ? "give one of index, permittivity, model, sellmeier_b, cauchy, table or ordinary/extraordinary"
+                                    : "give only one of index, permittivity, model, sellmeier_b, cauchy, table or ordinary/extraordinary");
   }
+  if (kappa && !index) throw InputError(r.where("extinction"), "goes with index");
+  if (eps_loss && !eps) throw InputError(r.where("permittivity_loss"), "goes with permittivity");
+  if (mole && !model) throw InputError(r.where("mole_fraction"), "goes with model");
+  if ((sc || sc2) && !sb) throw InputError(r.where(sc ? "sellmeier_c_um" : "sellmeier_c_um2"), "goes with sellmeier_b");
+  if ((axis_deg || axis_z) && !ordinary && !extraordinary) throw InputError(r.where(axis_deg ? "optic_axis_deg" : "optic_axis_along_z"), "goes with ordinary and extraordinary");
+
+  if (index) {
+    m.models.push_back(wrap([&] { return constant_index_model(name, *index, kappa.value_or(0.0), range(false)); }));
+  } else if (eps) {
+    std::vector<double> loss = eps_loss.value_or(std::vector<double>(eps->size(), 0.0));
+    if (loss.size() != eps->size()) throw InputError(r.where("permittivity_loss"), "must have the same shape as permittivity");
+    for (std::size_t i = 0; i < eps->size(); ++i) {
+      // n − jκ = sqrt(ε' − jε''), the root with n >= 0 (conventions.md).
+      std::complex<double> nk = std::sqrt(std::complex<double>((*eps)[i], -loss[i]));
+      if (nk.real() < 0) nk = -nk;
+      if (!(std::abs(nk) > 0)) throw InputError(r.where("permittivity"), "must not be zero");
+      m.models.push_back(wrap([&] { return constant_index_model(name, nk.real(), -nk.imag(), range(false)); }));
+    }
+    m.kind = eps->size() == 3 ? MaterialSpec::Kind::diagonal : MaterialSpec::Kind::isotropic;
+  } else if (model) {
+    CatalogueOptions opt;
+    opt.mole_fraction = mole;
+    opt.allow_extrapolation = extrapolate;
+    try {
+      m.models.push_back(catalogue_material(*model, opt));
+    } catch (const InputError& e) {
+      throw InputError(r.where("model"), e.what());
+    }
+  } else if (sb) {
+    if (!!sc == !!sc2) throw InputError(r.where("sellmeier_b"), "give exactly one of sellmeier_c_um (resonance wavelengths) or sellmeier_c_um2");
+    const auto& c = sc ? *sc : *sc2;
+    if (c.size() != sb->size()) throw InputError(r.where(sc ? "sellmeier_c_um" : "sellmeier_c_um2"), "needs as many entries as sellmeier_b");
+    SellmeierCoefficients co;
+    co.form = sc ? SellmeierForm::resonance_wavelength : SellmeierForm::resonance_wavelength_squared;
+    for (std::size_t i = 0; i < sb->size(); ++i) co.terms.push_back({(*sb)[i], c[i]});
+    m.models.push_back(wrap([&] { return sellmeier_model(name, "user Sellmeier", co, range(true)); }));
+  } else if (cauchy) {
+    m.models.push_back(wrap([&] { return cauchy_model(name, "user Cauchy", *cauchy, range(true)); }));
+  } else if (table) {
+    m.models.push_back(read_index_table(name, case_dir / *table, r.where("table"), extrapolate));
+  } else {
+    if (!ordinary || !extraordinary) throw InputError(r.where(ordinary ? "extraordinary" : "ordinary"), "a uniaxial crystal needs both ordinary and extraordinary");
+    if (axis_deg && axis_z.value_or(false)) throw InputError(r.where("optic_axis_deg"), "give either optic_axis_deg or optic_axis_along_z = true");
+    m.kind = MaterialSpec::Kind::uniaxial;
+    m.optic_axis_deg = axis_deg.value_or(0.0);
+    m.optic_axis_along_z = axis_z.value_or(false);
+    for (const auto& [key, ref] : {std::pair{"ordinary", *ordinary}, std::pair{"extraordinary", *extraordinary}}) {
+      const MaterialSpec* base = nullptr;
+      if (earlier) {
+        for (const auto& e : *earlier) {
+          if (e.name == ref) base = &e;
+        }
+      }
+      if (!base || base->kind != MaterialSpec::Kind::isotropic) {
+        throw InputError(r.where(key), "'" + ref + "' must name an isotropic material of this case (e.g. lno_o = { model = \"lithium_niobate_o\" })");
+      }
+      m.models.push_back(base->models.at(0));
+    }
+  }
+  r.finish();
   return m;
 }
 
@@ -391,7 +563,19 @@ CaseSpec read_case(const toml::table& root, const std::filesystem::path& path) {
   // [materials]
   const toml::table* mats = section("materials");
   if (!mats || mats->empty()) throw InputError(file, "the case needs a [materials] section naming at least one material");
-  for (const auto& [key, value] : *mats) c.materials.push_back(read_material(std::string(key.str()), value, file));
+  // Two passes: a uniaxial crystal refers to the isotropic materials of its two indices.
+  const auto case_dir = path.parent_path();
+  auto is_crystal = [](const toml::node& v) {
+    const toml::table* t = v.as_table();
+    return t && (t->contains("ordinary") || t->contains("extraordinary"));
+  };
+  for (const auto& [key, value] : *mats) {
+    if (!is_crystal(value)) c.materials.push_back(read_material(std::string(key.str()), value, file, case_dir));
+  }
+  const std::vector<MaterialSpec> base = c.materials;
+  for (const auto& [key, value] : *mats) {
+    if (is_crystal(value)) c.materials.push_back(read_material(std::string(key.str()), value, file, case_dir, &base));
+  }
 
   auto known_material = [&](const std::string& name, const std::string& where) {
     if (c.find_material(name)) return;
@@ -514,15 +698,6 @@ CaseSpec read_case(const toml::table& root, const std::filesystem::path& path) {
 }
 
 }  // namespace
-
-double MaterialSpec::max_index() const {
-  if (index) return *index;
-  return std::sqrt(std::max({(*permittivity)[0], (*permittivity)[1], (*permittivity)[2]}));
-}
-double MaterialSpec::min_index() const {
-  if (index) return *index;
-  return std::sqrt(std::min({(*permittivity)[0], (*permittivity)[1], (*permittivity)[2]}));
-}
 
 const MaterialSpec* CaseSpec::find_material(const std::string& name) const {
   for (const auto& m : materials) {

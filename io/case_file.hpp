@@ -10,21 +10,10 @@
 #include <string>
 #include <vector>
 
+#include "io/material_spec.hpp"
 #include "mesh/cross_section.hpp"
 
 namespace cladwise::io {
-
-/// A named material as written in the case (resolved into solver tensors by the solve command).
-struct MaterialSpec {
-  std::string name;
-  std::optional<double> index;                       ///< isotropic real index
-  std::optional<std::array<double, 3>> permittivity; ///< diagonal eps_xx, eps_yy, eps_zz
-  std::string where;                                  ///< "case.toml:5"
-  /// Largest refractive index this material offers (sqrt of the largest permittivity).
-  double max_index() const;
-  /// Smallest refractive index this material offers.
-  double min_index() const;
-};
 
 enum class WallKind { electric, magnetic };
 

@@ -16,13 +16,47 @@ constexpr std::array kKeys = {
     CaseKey{"", "wavelength_um", K::number, "µm", "required", "", B::positive,
             "Vacuum wavelength."},
 
-    // ---- materials: [materials] NAME = index, or NAME = { ... } ----
-    CaseKey{"materials.NAME", "index", K::number, "", "required unless permittivity", "",
-            B::positive, "Real refractive index (lossless, isotropic). `NAME = 1.444` is short for "
-                         "`NAME = { index = 1.444 }`."},
-    CaseKey{"materials.NAME", "permittivity", K::number_triple, "", "", "", B::positive,
-            "Diagonal relative permittivity [eps_xx, eps_yy, eps_zz] of an anisotropic region "
-            "(principal axes along x, y, z)."},
+    // ---- materials: [materials] NAME = index, or NAME = { ... } (docs/materials.md) ----
+    CaseKey{"materials.NAME", "index", K::number, "", "one model key is required", "", B::positive,
+            "Constant refractive index. `NAME = 1.444` is short for `NAME = { index = 1.444 }`."},
+    CaseKey{"materials.NAME", "extinction", K::number, "", "0", "", B::non_negative,
+            "Extinction coefficient κ of a constant index: n − jκ, κ > 0 absorbs."},
+    CaseKey{"materials.NAME", "permittivity", K::number_or_triple, "", "", "", B::any,
+            "Constant relative permittivity ε' (may be negative for a metal), or the diagonal "
+            "[ε_xx, ε_yy, ε_zz] of an anisotropic region (principal axes along x, y, z)."},
+    CaseKey{"materials.NAME", "permittivity_loss", K::number_or_triple, "", "0", "", B::non_negative,
+            "Imaginary part ε'' >= 0 of the permittivity, ε = ε' − jε'' (same shape as permittivity)."},
+    CaseKey{"materials.NAME", "model", K::text, "", "", "", B::any,
+            "A built-in dispersion model by name (silica, germania, germania_silica, "
+            "fluorine_silica, silicon, silicon_nitride, lithium_niobate_o, lithium_niobate_e, air, "
+            "...; docs/materials.md)."},
+    CaseKey{"materials.NAME", "mole_fraction", K::number, "", "", "", B::non_negative,
+            "Dopant mole fraction 0–1 of a mixture model (germania_silica)."},
+    CaseKey{"materials.NAME", "sellmeier_b", K::number_list, "", "", "", B::any,
+            "Sellmeier strengths B_i: n² − 1 = Σ B_i λ²/(λ² − C_i) (C_i in µm² or C_i² in µm)."},
+    CaseKey{"materials.NAME", "sellmeier_c_um", K::number_list, "µm", "", "", B::any,
+            "Sellmeier resonance wavelengths C_i (n² − 1 = Σ B_i λ²/(λ² − C_i²))."},
+    CaseKey{"materials.NAME", "sellmeier_c_um2", K::number_list, "µm²", "", "", B::any,
+            "Sellmeier constants C_i in µm² (n² − 1 = Σ B_i λ²/(λ² − C_i))."},
+    CaseKey{"materials.NAME", "cauchy", K::number_list, "", "", "", B::any,
+            "Cauchy coefficients [A, B, C, ...]: n = A + B/λ² + C/λ⁴ + ... (λ in µm)."},
+    CaseKey{"materials.NAME", "table", K::text, "", "", "", B::any,
+            "CSV file (relative to the case) with columns wavelength_um, n and optionally k; "
+            "interpolated by a cubic spline."},
+    CaseKey{"materials.NAME", "valid_from_um", K::number, "µm", "required for sellmeier/cauchy", "",
+            B::positive, "Shortest wavelength at which a user fit may be evaluated."},
+    CaseKey{"materials.NAME", "valid_to_um", K::number, "µm", "required for sellmeier/cauchy", "",
+            B::positive, "Longest wavelength at which a user fit may be evaluated."},
+    CaseKey{"materials.NAME", "allow_extrapolation", K::boolean, "", "false", "", B::any,
+            "Evaluate a model or table outside its validity range instead of stopping."},
+    CaseKey{"materials.NAME", "ordinary", K::text, "", "", "", B::any,
+            "Uniaxial crystal: name of the material giving the ordinary index."},
+    CaseKey{"materials.NAME", "extraordinary", K::text, "", "", "", B::any,
+            "Uniaxial crystal: name of the material giving the extraordinary index."},
+    CaseKey{"materials.NAME", "optic_axis_deg", K::number, "deg", "0", "", B::any,
+            "Uniaxial crystal: angle of the optic axis in the cross-section, from x."},
+    CaseKey{"materials.NAME", "optic_axis_along_z", K::boolean, "", "false", "", B::any,
+            "Uniaxial crystal: the optic axis lies along the guide (z) instead."},
 
     // ---- domain: the outer boundary and what fills it ----
     CaseKey{"domain", "shape", K::text, "", "\"disk\"", "", B::any,
@@ -166,6 +200,8 @@ std::string_view key_type_name(KeyType t) {
     case K::number_pair: return "[number, number]";
     case K::number_triple: return "[number, number, number]";
     case K::point_list: return "[[x, y], ...]";
+    case K::number_list: return "[number, ...]";
+    case K::number_or_triple: return "number or [number, number, number]";
     case K::table: return "table";
   }
   return "?";

@@ -8,7 +8,10 @@
 
 namespace cladwise::io {
 
-enum class KeyType { number, integer, boolean, text, number_pair, number_triple, point_list, table };
+enum class KeyType {
+  number, integer, boolean, text, number_pair, number_triple, point_list, table, number_list,
+  number_or_triple
+};
 enum class KeyBound { any, positive, non_negative };
 
 struct CaseKey {

@@ -64,7 +64,7 @@ int run_check(const Args& args) {
     std::vector<double> index(mesh.n_triangles());
     for (int t = 0; t < mesh.n_triangles(); ++t) {
       const MaterialSpec* m = c.find_material(mesh.regions[mesh.triangle_region[t]].material);
-      index[t] = m ? m->max_index() : std::nan("");
+      index[t] = m ? m->max_index(c.wavelength_um) : std::nan("");
     }
     write_vtu(mesh, {VtkArray{"index", 1, index, true}}, out.staging() / "mesh.vtu");
     out.commit();
@@ -91,7 +91,7 @@ int run_check(const Args& args) {
     char drawn_text[32] = "-";
     if (std::isfinite(drawn[r])) std::snprintf(drawn_text, sizeof drawn_text, "%.10g", drawn[r]);
     std::printf("%-16s %-16s %-9s %10.6g %18.10g %18s %9.3f\n", rr.name.c_str(), rr.material.c_str(),
-                rr.role == RegionRole::pml ? "pml" : "physical", m ? m->max_index() : std::nan(""),
+                rr.role == RegionRole::pml ? "pml" : "physical", m ? m->max_index(c.wavelength_um) : std::nan(""),
                 rr.area, drawn_text, rr.min_quality);
     if (rr.role == RegionRole::physical) total += rr.area;
   }

@@ -23,12 +23,13 @@ ModeProblem mode_problem(const CaseSpec& c, const Mesh& mesh) {
     }
     const MaterialSpec* m = c.find_material(region.material);
     if (!m) throw InputError(c.path.string(), "region '" + region.name + "' names material '" + region.material + "', which the case does not define");
-    if (m->index) {
-      p.region_materials.push_back(isotropic_material(*m->index, m->name));
-    } else {
-      const auto& e = *m->permittivity;
-      p.region_materials.push_back(diagonal_material(e[0], e[1], e[2], m->name));
+    const PermittivityTensor eps = m->permittivity(c.wavelength_um);
+    if (!eps.is_real() || !eps.is_diagonal()) {
+      throw InputError(m->where + " [materials] '" + m->name + "'",
+                       "absorbing, metallic and rotated-crystal materials need the complex solver, "
+                       "which is not available in this version");
     }
+    p.region_materials.push_back(diagonal_material(eps.xx.real(), eps.yy.real(), eps.zz.real(), m->name));
   }
   for (const auto& b : mesh.boundaries) {
     WallKind w = c.walls.outer;
@@ -50,7 +51,7 @@ CaseSolution solve_case(const CaseSpec& c, const Mesh& mesh, Progress* progress)
   request.all_guided = c.solve.all_guided;
   if (c.solve.all_guided && !c.import) {
     // Guided modes lie above the background (cladding) index.
-    request.n_lower_bound = c.find_material(c.geometry.background_material)->max_index();
+    request.n_lower_bound = c.find_material(c.geometry.background_material)->max_index(c.wavelength_um);
   }
   if (c.solve.target_index && *c.solve.target_index > solver.max_material_index()) {
     throw InputError(c.path.string() + " [solve] key 'target_index'",
@@ -110,7 +111,7 @@ std::vector<VtkArray> mode_field_arrays(const CaseSpec& c, const Mesh& mesh, con
   VtkArray index{"index", 1, {}, true};
   for (int t = 0; t < mesh.n_triangles(); ++t) {
     const MaterialSpec* mat = c.find_material(mesh.regions[mesh.triangle_region[t]].material);
-    index.values.push_back(mat ? mat->max_index() : std::nan(""));
+    index.values.push_back(mat ? mat->max_index(c.wavelength_um) : std::nan(""));
   }
   return {e_re, e_im, h_re, h_im, e2, sz, index};
 }
