@@ -26,7 +26,7 @@ if ((${#missing[@]})); then
     echo "setup: installing ${missing[*]}" >&2
     export DEBIAN_FRONTEND=noninteractive
     apt-get update -qq
-    apt-get install -y -qq --no-install-recommends "${missing[@]}" >&2
+    apt-get install -y -qq "${missing[@]}" >&2
   else
     echo "setup: these Debian packages are missing; install them as root and run again:" >&2
     echo "  sudo apt-get install -y ${missing[*]}" >&2
