@@ -2,13 +2,14 @@
 # cladwise set-up: installs the Debian 12 packages that are missing, configures, builds, and then
 #   ./setup.sh          runs the demo case
 #   ./setup.sh test     runs the whole test suite through ctest
+#   ./setup.sh build    only builds; ./setup.sh configure only installs and configures
 # Nothing is downloaded except Debian packages; nothing is vendored.
 set -euo pipefail
 cd "$(dirname "$0")"
 
 mode="${1:-demo}"
-case "$mode" in demo|test|build) ;; *)
-  echo "usage: ./setup.sh [demo|test|build]" >&2; exit 2 ;;
+case "$mode" in demo|test|build|configure) ;; *)
+  echo "usage: ./setup.sh [demo|test|build|configure]" >&2; exit 2 ;;
 esac
 
 packages=(build-essential cmake pkg-config git
@@ -36,6 +37,7 @@ fi
 
 jobs="$(nproc 2>/dev/null || echo 2)"
 cmake -S . -B build -DCMAKE_BUILD_TYPE=Release >&2
+[[ "$mode" == configure ]] && exit 0
 cmake --build build --parallel "$jobs" >&2
 
 case "$mode" in
