@@ -3,12 +3,14 @@
 
 #include <Eigen/SparseCore>
 #include <Eigen/UmfPackSupport>
+#include <Eigen/Eigenvalues>
 #include <Spectra/GenEigsSolver.h>
 
 #include <algorithm>
 #include <chrono>
 #include <cmath>
 #include <complex>
+#include <limits>
 #include <numbers>
 #include <string>
 
@@ -73,6 +75,7 @@ struct ModeSolver::Factorization {
   double sigma = 0.0;
   const SpMat* b = nullptr;
   mutable Eigen::VectorXd bx;
+  mutable long n_ops = 0;  // operator applications (diagnostics: cost of the eigensolve)
 
   using Scalar = double;  // Spectra operator concept
   Eigen::Index rows() const { return k.rows(); }
@@ -82,6 +85,7 @@ struct ModeSolver::Factorization {
     Eigen::Map<Eigen::VectorXd> y(y_out, k.rows());
     bx.noalias() = (*b) * x;
     y = lu.solve(bx);
+    ++n_ops;
   }
 };
 
@@ -151,7 +155,69 @@ Eigen::VectorXd real_vector(const Eigen::VectorXcd& v) {
   return (v * phase).real();
 }
 
+/// One Ritz pair of the final Krylov space (Spectra keeps vectors only for the nev wanted ones).
+struct RitzPair {
+  std::complex<double> theta;
+  Eigen::VectorXcd y;  ///< eigenvector of the Hessenberg matrix H (unit 2-norm)
+  bool converged = false;
+};
+
+/// Spectra's implicitly restarted Arnoldi with the whole final Krylov space exposed: after
+/// compute(), V (n × ncv), H (ncv × ncv) and f satisfy op V = V H + f e_ncvᵀ, so every Ritz
+/// pair (θ, V y) has the residual estimate ‖f‖ |e_ncvᵀ y|, the same test Spectra applies to the
+/// nev wanted pairs (R. B. Lehoucq, D. C. Sorensen, C. Yang, "ARPACK Users' Guide", SIAM 1998,
+/// §4.5). Ritz pairs past nev that pass it cost nothing more.
+template <class Op>
+class LookAheadArnoldi : public Spectra::GenEigsSolver<Op> {
+public:
+  using Spectra::GenEigsSolver<Op>::GenEigsSolver;
+
+  /// Every Ritz pair, by descending |θ|, with the convergence flag for tolerance `tol`.
+  std::vector<RitzPair> ritz_pairs(double tol) const {
+    const Eigen::MatrixXd& h = this->m_fac.matrix_H();
+    Eigen::EigenSolver<Eigen::MatrixXd> es(h);
+    const double f_norm = this->m_fac.f_norm();
+    const double eps23 = std::pow(std::numeric_limits<double>::epsilon(), 2.0 / 3.0);
+    std::vector<RitzPair> out;
+    for (Eigen::Index i = 0; i < h.rows(); ++i) {
+      RitzPair p;
+      p.theta = es.eigenvalues()[i];
+      p.y = es.eigenvectors().col(i).normalized();
+      p.converged = std::abs(p.y[h.rows() - 1]) * f_norm < tol * std::max(eps23, std::abs(p.theta));
+      out.push_back(std::move(p));
+    }
+    std::stable_sort(out.begin(), out.end(), [](const RitzPair& a, const RitzPair& b) {
+      return std::abs(a.theta) > std::abs(b.theta);
+    });
+    return out;
+  }
+  Eigen::VectorXcd ritz_vector(const RitzPair& p) const { return this->m_fac.matrix_V() * p.y; }
+};
+
+constexpr int kMinKrylovExtra = 20;  // ncv ≥ nev + 20: see SolveRequest::krylov_dimension
+
 }  // namespace
+
+double ModeSolver::estimated_guided_modes(double n_lower) const {
+  // Weyl's law for the vector problem: two polarisations of a scalar count A k0² Δ(n²) / (4π)
+  // per region above n_lower (for a step-index fibre Σ = V²/2, the classical mode count).
+  const Mesh& m = *problem_.mesh;
+  std::vector<double> area(m.regions.size(), 0.0);
+  for (int t = 0; t < m.n_triangles(); ++t) {
+    const auto& a = m.nodes[m.triangles[t][0]];
+    const auto& b = m.nodes[m.triangles[t][1]];
+    const auto& c = m.nodes[m.triangles[t][2]];
+    area[m.triangle_region[t]] +=
+        0.5 * std::abs((b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0]));
+  }
+  const double k0v = k0();
+  double count = 0.0;
+  for (std::size_t r = 0; r < area.size(); ++r) {
+    const double n_r = max_index(problem_.region_materials[r]);
+    if (n_r > n_lower) count += area[r] * k0v * k0v * (n_r * n_r - n_lower * n_lower) / (2.0 * std::numbers::pi);
+  }
+  return count;
+}
 
 SolveResult ModeSolver::solve(const SolveRequest& request) {
   SolveResult result;
@@ -200,7 +266,7 @@ SolveResult ModeSolver::solve(const SolveRequest& request) {
     return result;
   }
 
-  // ---- Arnoldi, widening nev until the guided range is covered ----------------------------------
+  // ---- Arnoldi, widening nev until the request is met -------------------------------------------
   const auto t_eig = Clock::now();
   const int n = dofs_.n_dofs();
   const double norm_a = norm1(matrices_.a), norm_b = norm1(matrices_.b);
@@ -209,40 +275,62 @@ SolveResult ModeSolver::solve(const SolveRequest& request) {
   const double lambda_lower = -(k0v * n_lower) * (k0v * n_lower);
   const double radius_needed = std::max(std::abs(lambda_upper - sigma), std::abs(lambda_lower - sigma));
   const int nev_cap = std::max(1, std::min(request.max_eigenvalues, n - 3));
-  int nev = std::min(nev_cap, request.all_guided ? std::max(request.n_modes, 8) : request.n_modes + 2);
+  // nev is what Arnoldi must converge; the rest of the Krylov space is read as look-ahead. For a
+  // count of modes that is the count itself (the degenerate partner of the last one converges
+  // with it and is found in the look-ahead); asking for more would force the convergence of
+  // cladding modes crowding just below n_clad, the slowest part of the spectrum (measured on the
+  // weakly guiding fibre: nev = n + 2 cost 75 operator applications for 2 modes, nev = n 25).
+  // For every guided mode the first guess is the Weyl estimate of their number.
+  // The Weyl count underestimates a fibre's modes by about V (10 against V²/2 = 8.9 on the
+  // silica rod of checks.md §8), hence the factor 1.2; one mode past n_lower proves coverage.
+  int nev = std::min(nev_cap, request.all_guided
+                                  ? std::max(3, static_cast<int>(std::ceil(
+                                                    1.2 * estimated_guided_modes(n_lower))) + 1)
+                                  : request.n_modes);
+  Eigen::VectorXd start;  // empty: Spectra's own random start
 
   std::vector<Candidate> accepted;
   bool arnoldi_ok = true;
-  for (int round = 0;; ++round) {
+  const long ops_before = f.n_ops;
+  for (;;) {
     report("eigensolve", 0.0);
-    // A wide subspace: fewer restarts for the same number of operator applications (measured on
-    // the elliptical-core case: ncv 20 -> 13 restarts, 0.69 s; ncv 40 -> 5 restarts, 0.39 s).
-    const int ncv = std::min(n, std::max(2 * nev + 1, 40));
-    Spectra::GenEigsSolver<Factorization> eigs(f, nev, ncv);
-    eigs.init();
-    eigs.compute(Spectra::SortRule::LargestMagn, 1000, request.arnoldi_tolerance,
+    // A wide subspace: fewer restarts for the same number of operator applications.
+    const int ncv = request.krylov_dimension > nev + 1
+                        ? std::min(n, request.krylov_dimension)
+                        : std::min(n, std::max(2 * nev + 1, nev + kMinKrylovExtra));
+    LookAheadArnoldi<Factorization> eigs(f, nev, ncv);
+    if (start.size() == n) {
+      eigs.init(start.data());
+    } else {
+      eigs.init();
+    }
+    eigs.compute(Spectra::SortRule::LargestMagn, request.max_restarts, request.arnoldi_tolerance,
                  Spectra::SortRule::LargestMagn);
     arnoldi_ok = eigs.info() == Spectra::CompInfo::Successful;
-    const Eigen::VectorXcd theta = eigs.eigenvalues();
-    const Eigen::MatrixXcd vecs = eigs.eigenvectors(theta.size());
+    ++result.n_arnoldi_runs;
     result.n_eigenvalues = nev;
+    const std::vector<RitzPair> ritz = eigs.ritz_pairs(request.arnoldi_tolerance);
 
+    // Candidates: the leading run of converged Ritz pairs (nothing nearer σ is missing from it).
     std::vector<Candidate> cands;
+    result.beta_sq_found.clear();
     double radius_found = 0.0;
-    for (Eigen::Index i = 0; i < theta.size(); ++i) {
-      const std::complex<double> th = theta[i];
+    std::size_t n_conv = 0;
+    while (n_conv < ritz.size() && ritz[n_conv].converged) ++n_conv;
+    for (std::size_t i = 0; i < n_conv; ++i) {
+      const std::complex<double> th = ritz[i].theta;
       radius_found = std::max(radius_found, 1.0 / std::abs(th));
       Candidate c;
       c.distance = 1.0 / std::abs(th);
       c.real = std::abs(th.imag()) <= request.imag_tolerance * std::abs(th);
       if (!c.real) continue;
+      const Eigen::VectorXcd v = eigs.ritz_vector(ritz[i]);
       if (th.imag() == 0.0) {
-        c.x = real_vector(vecs.col(i));
+        c.x = real_vector(v);
       } else {
         // A nearly real conjugate pair θ, θ̄ (a degenerate pair split by rounding): Re v and Im v
         // span the real two-dimensional eigenspace; give one to each member of the pair.
-        c.x = th.imag() > 0 ? Eigen::VectorXd(vecs.col(i).real())
-                            : Eigen::VectorXd(vecs.col(i).imag());
+        c.x = th.imag() > 0 ? Eigen::VectorXd(v.real()) : Eigen::VectorXd(v.imag());
       }
       c.x.normalize();
       const double xbx = c.x.dot(matrices_.b * c.x);
@@ -263,7 +351,19 @@ SolveResult ModeSolver::solve(const SolveRequest& request) {
       accepted.push_back(c);
     }
     const bool range_covered = radius_found >= radius_needed;
-    const bool enough = !request.all_guided && static_cast<int>(accepted.size()) > request.n_modes;
+    bool enough = false;
+    if (!request.all_guided && static_cast<int>(accepted.size()) >= request.n_modes) {
+      // Complete unless the first Ritz value after the converged run may be the partner of the
+      // last mode kept (same |θ| within the degeneracy tolerance) and is not converged yet.
+      enough = true;
+      if (n_conv < ritz.size() && n_conv > 0) {
+        const double d_last = 1.0 / std::abs(ritz[n_conv - 1].theta);
+        const double d_next = 1.0 / std::abs(ritz[n_conv].theta);
+        // |Δλ| ≈ 2 β² |Δn_eff| / n_eff
+        const double gap = 2.0 * std::abs(sigma) * request.degeneracy_tolerance;
+        if (std::abs(d_next - d_last) <= gap) enough = false;
+      }
+    }
     report("eigensolve", 1.0);
     if (range_covered || enough || nev >= nev_cap || !arnoldi_ok) {
       if (request.all_guided && !range_covered && arnoldi_ok) {
@@ -271,8 +371,12 @@ SolveResult ModeSolver::solve(const SolveRequest& request) {
       }
       break;
     }
-    nev = std::min(nev_cap, 2 * nev);
-    result.beta_sq_found.clear();
+    // Widen and start again (Spectra has no warm restart with a larger nev), from the sum of
+    // the modes found plus a random part: the new Krylov space begins rich in the known modes
+    // (measured, silica rod: a cold restart with 2 nev cost 627 more operator applications).
+    nev = std::min(nev_cap, nev + std::max(4, nev / 2));
+    start = Eigen::VectorXd::Random(n).normalized();
+    for (const auto& c : cands) start += c.x.normalized();
   }
 
   // ---- selection: nearest the target, keeping degenerate partners together ----------------------
@@ -312,6 +416,7 @@ SolveResult ModeSolver::solve(const SolveRequest& request) {
   std::sort(result.modes.begin(), result.modes.end(),
             [](const Mode& a, const Mode& b) { return a.n_eff > b.n_eff; });
   result.timing.eigensolve_s = seconds_since(t_eig);
+  result.n_operator_applications = f.n_ops - ops_before;
 
   if (!arnoldi_ok) result.status = EigenStatus::not_converged;
   else if (residual_failed) result.status = EigenStatus::residual_too_large;

@@ -47,7 +47,13 @@ struct SolveRequest {
   double imag_tolerance = 1e-6;         ///< |Im θ|/|θ| above it: complex pair, not a guided mode
   double degeneracy_tolerance = 1e-6;   ///< relative n_eff gap under which two modes form a pair
   int max_eigenvalues = 400;            ///< cap of the widening search
-  double arnoldi_tolerance = 1e-10;     ///< Spectra convergence tolerance on θ
+  /// Spectra's convergence test on θ (relative Ritz residual estimate). 1e-9 suffices: the
+  /// eigenvalue is then polished by the Rayleigh quotient (error ~ square of the vector error)
+  /// and every mode is checked against A and B by its residual.
+  double arnoldi_tolerance = 1e-9;
+  /// Arnoldi subspace size ncv; 0: automatic, max(2 nev + 1, nev + 20).
+  int krylov_dimension = 0;
+  int max_restarts = 1000;              ///< implicit restarts before not_converged
 };
 
 enum class EigenStatus {
@@ -72,6 +78,9 @@ struct SolveResult {
   SolveTiming timing;
   int n_dofs = 0;
   int n_eigenvalues = 0;           ///< eigenvalues computed in the last Arnoldi run (nev)
+  int n_arnoldi_runs = 0;          ///< Arnoldi runs (1, or more when all_guided widened nev)
+  /// Applications of op(x) = (A − σB)⁻¹ B x over all runs: one pair of triangular solves each.
+  long n_operator_applications = 0;
   /// β² = −λ of every real converged eigenvalue of the last run, accepted or not (1/µm²):
   /// diagnostics for spurious-mode checks.
   std::vector<double> beta_sq_found;
@@ -103,6 +112,10 @@ public:
   double max_material_index() const;  ///< sqrt(max ε_ii) over regions
   double min_material_index() const;  ///< sqrt(min ε_ii) over regions
   int n_dofs() const { return dofs_.n_dofs(); }
+  /// Weyl estimate of the number of modes with n_lower < n_eff (both polarisations counted):
+  /// Σ_regions A k0² (n² − n_lower²) / (2π); V²/2 for a step-index fibre. Sizes the first
+  /// Arnoldi run of an all_guided request.
+  double estimated_guided_modes(double n_lower) const;
 
 private:
   struct Factorization;
