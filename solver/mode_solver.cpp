@@ -60,6 +60,7 @@ std::string_view to_string(EigenStatus s) {
     case EigenStatus::residual_too_large: return "residual too large";
     case EigenStatus::factorization_failed: return "factorization failed";
     case EigenStatus::search_incomplete: return "search incomplete";
+    case EigenStatus::no_modes_found: return "no modes found";
   }
   return "unknown";
 }
@@ -231,8 +232,13 @@ SolveResult ModeSolver::solve(const SolveRequest& request) {
   const double k0v = k0();
   const double n_max = max_material_index();
   const double n_target = request.n_target.value_or(n_max);
-  if (!(n_target > 0.0)) {
-    throw InputError("n_target", "must be positive, got " + std::to_string(n_target));
+  if (!(n_target > 0.0) || !std::isfinite(n_target)) {
+    throw InputError("n_target", "must be a positive effective index, got " + std::to_string(n_target));
+  }
+  if (n_target > n_max * (1.0 + 1e-12)) {
+    throw InputError("n_target", "is above every material index (largest " + std::to_string(n_max) +
+                                     ", target " + std::to_string(n_target) +
+                                     "); no mode has an effective index there: lower the target");
   }
   const double n_min = min_material_index();
   const double n_lower = request.n_lower_bound.value_or(n_min < n_max ? n_min : 0.0);
@@ -337,7 +343,7 @@ SolveResult ModeSolver::solve(const SolveRequest& request) {
       const double lambda_ritz = sigma + 1.0 / th.real();
       // Rayleigh quotient of the symmetric pencil: second-order accurate in the vector error.
       c.lambda = std::abs(xbx) > 1e-14 * norm_b ? c.x.dot(matrices_.a * c.x) / xbx : lambda_ritz;
-      result.beta_sq_found.push_back(-c.lambda);
+      if (static_cast<int>(i) < nev) result.beta_sq_found.push_back(-c.lambda);
       cands.push_back(std::move(c));
     }
 
@@ -420,6 +426,7 @@ SolveResult ModeSolver::solve(const SolveRequest& request) {
 
   if (!arnoldi_ok) result.status = EigenStatus::not_converged;
   else if (residual_failed) result.status = EigenStatus::residual_too_large;
+  else if (result.modes.empty()) result.status = EigenStatus::no_modes_found;
   return result;
 }
 

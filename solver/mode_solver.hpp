@@ -62,6 +62,7 @@ enum class EigenStatus {
   residual_too_large,    ///< some eigenpair failed the residual check (left out of `modes`)
   factorization_failed,  ///< A − σB is singular (σ is an eigenvalue); move n_target slightly
   search_incomplete,     ///< all_guided: the cap max_eigenvalues was reached before n_lower_bound
+  no_modes_found,        ///< the search converged but no eigenpair is a guided forward mode
 };
 
 std::string_view to_string(EigenStatus s);
@@ -81,8 +82,8 @@ struct SolveResult {
   int n_arnoldi_runs = 0;          ///< Arnoldi runs (1, or more when all_guided widened nev)
   /// Applications of op(x) = (A − σB)⁻¹ B x over all runs: one pair of triangular solves each.
   long n_operator_applications = 0;
-  /// β² = −λ of every real converged eigenvalue of the last run, accepted or not (1/µm²):
-  /// diagnostics for spurious-mode checks.
+  /// β² = −λ of every real converged eigenvalue among the nev nearest σ of the last run,
+  /// accepted or not (1/µm²): diagnostics for spurious-mode checks.
   std::vector<double> beta_sq_found;
 };
 
@@ -92,6 +93,9 @@ using ProgressCallback = std::function<void(std::string_view stage, double fract
 class ModeSolver {
 public:
   /// Validates the problem (InputError naming the field) and builds the DofMap.
+  /// solve() throws InputError for n_modes < 1 (without all_guided) and for an n_target that is
+  /// not positive or lies above every material index (no mode can have n_eff there); numerical
+  /// outcomes (singular A − σB, no convergence, no mode, residual) are EigenStatus values.
   explicit ModeSolver(ModeProblem problem);
   ~ModeSolver();
   ModeSolver(const ModeSolver&) = delete;

@@ -122,6 +122,29 @@ TEST(FemFibre, WeakGuidanceOrder1He11Within1e6) {
   EXPECT_LT(std::abs(r.result.modes[0].n_eff - r.result.modes[1].n_eff), 1e-12);
 }
 
+// Must show: asking for 6 modes (the HE11 pair and four cladding modes crowding just below n_clad)
+// does not cost many times more than asking for 2; 2 modes take a few dozen operator
+// applications (each one forward and one backward triangular solve with the LU).
+TEST(FemFibre, SixModesDoNotCostManyTimesTwo) {
+  bench::FibreMeshSpec s{kWeak, 8 * 4.1, 2, 0.4, 0.4, 1.15, 8.0, true};
+  const Mesh mesh = bench::fibre_mesh(s);
+  ModeSolver solver(bench::fibre_problem(mesh, s));
+  SolveRequest two, six;
+  two.n_modes = 2;
+  six.n_modes = 6;
+  const SolveResult r2 = solver.solve(two), r6 = solver.solve(six);
+  std::printf("operator applications: 2 modes %ld, 6 modes %ld (%d unknowns)\n",
+              r2.n_operator_applications, r6.n_operator_applications, r2.n_dofs);
+  ASSERT_EQ(r2.status, EigenStatus::converged);
+  ASSERT_EQ(r6.status, EigenStatus::converged);
+  EXPECT_EQ(r2.modes.size(), 2u);
+  EXPECT_GE(r6.modes.size(), 6u);
+  EXPECT_LE(r2.n_operator_applications, 60);
+  EXPECT_LE(r6.n_operator_applications, 5 * r2.n_operator_applications);
+  EXPECT_NEAR(r6.modes[0].n_eff, r2.modes[0].n_eff, 1e-12);
+  for (const auto& m : r6.modes) EXPECT_LT(m.residual, 1e-8);
+}
+
 // High contrast: all six guided vector modes, ordering TE01 > HE21 > TM01 (checks.md §8).
 TEST(FemFibre, SilicaRodInAirEveryGuidedModeAndField) {
   bench::FibreMeshSpec s{kRod, 16.0, 2, 0.07, 0.05, 1.3, 2.0, true};
