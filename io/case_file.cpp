@@ -551,7 +551,7 @@ CaseSpec read_case(const toml::table& root, const std::filesystem::path& path) {
     if (!n->is_table()) throw InputError(file_line(file, n->source()) + " '" + name + "'", "must be a [" + std::string(name) + "] section");
     return n->as_table();
   };
-  std::set<std::string> sections_seen = {"title", "wavelength_um", "materials", "domain", "region", "mesh", "solve", "import"};
+  std::set<std::string> sections_seen = {"title", "wavelength_um", "materials", "domain", "region", "mesh", "solve", "import", "bend"};
   for (const auto& [key, value] : root) {
     const std::string k(key.str());
     if (!sections_seen.count(k)) {
@@ -609,7 +609,20 @@ CaseSpec read_case(const toml::table& root, const std::filesystem::path& path) {
     }
     c.solve.all_guided = r.boolean("all_guided").value_or(false);
     c.solve.target_index = r.number("target_index");
+    c.solve.check_pml = r.boolean("check_pml").value_or(false);
     r.finish();
+  }
+
+  // [bend]
+  if (const toml::table* t = section("bend")) {
+    TableReader r(*t, "bend", "[bend]", file);
+    BendSpec b;
+    b.where = r.where();
+    b.radius_um = r.required_number("radius_um");
+    b.direction_deg = r.number_or("direction_deg", 0.0);
+    b.conformal = r.choice("model", "exact", {"exact", "conformal"}) == "conformal";
+    r.finish();
+    c.bend = b;
   }
 
   // [import] or [domain] + [[region]]
@@ -654,6 +667,11 @@ CaseSpec read_case(const toml::table& root, const std::filesystem::path& path) {
     g.background_material = r.required_text("material");
     known_material(g.background_material, r.where("material"));
     g.outer.pml_thickness = r.number_or("pml_thickness_um", 0.0);
+    c.pml.strength = r.number_or("pml_strength", c.pml.strength);
+    if (auto m = r.integer("pml_power")) {
+      if (*m > 8) throw InputError(r.where("pml_power"), "must be between 0 and 8");
+      c.pml.power = static_cast<int>(*m);
+    }
     const std::string sym = r.choice("symmetry", "none", {"none", "half-upper", "half-right", "quarter"});
     g.symmetry = sym == "half-upper" ? SymmetryCut::half_upper
                  : sym == "half-right" ? SymmetryCut::half_right

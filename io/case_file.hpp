@@ -27,6 +27,20 @@ struct SolveSpec {
   int n_modes = 2;
   bool all_guided = false;
   std::optional<double> target_index;
+  bool check_pml = false;
+};
+
+/// Absorption profile of the PML shell (its thickness is CrossSection::outer.pml_thickness).
+struct PmlSpec {
+  double strength = 8.0;
+  int power = 2;
+};
+
+struct BendSpec {
+  double radius_um = 0;
+  double direction_deg = 0;
+  bool conformal = false;  ///< scalar n(1 + u/R) instead of the exact transformation
+  std::string where;
 };
 
 /// Geometry from a file instead of [domain] and [[region]].
@@ -44,6 +58,8 @@ struct CaseSpec {
   CrossSection geometry;                 ///< from [domain], [[region]] and [mesh]
   std::optional<ImportSpec> import;      ///< set when the geometry comes from a file
   BoundarySpec walls;
+  PmlSpec pml;
+  std::optional<BendSpec> bend;
   SolveSpec solve;
 
   const MaterialSpec* find_material(const std::string& name) const;

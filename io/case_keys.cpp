@@ -73,6 +73,11 @@ constexpr std::array kKeys = {
             "Background material filling the domain under every region (usually the cladding)."},
     CaseKey{"domain", "pml_thickness_um", K::number, "µm", "0", "", B::non_negative,
             "Thickness of an absorbing shell (perfectly matched layer) outside the domain; 0: none."},
+    CaseKey{"domain", "pml_strength", K::number, "", "8", "", B::non_negative,
+            "Absorption strength σ_max of the layer: coordinates stretch by 1 − jσ_max(ρ/t)^m. "
+            "Leaky modes meet the layer at grazing incidence and need several units."},
+    CaseKey{"domain", "pml_power", K::integer, "", "2", "", B::non_negative,
+            "Grading exponent m of the absorption profile σ_max(ρ/t)^m."},
     CaseKey{"domain", "symmetry", K::text, "", "\"none\"", "", B::any,
             "Mirror-symmetry cut: \"none\", \"half-upper\" (keep y >= 0), \"half-right\" "
             "(keep x >= 0) or \"quarter\" (keep x, y >= 0)."},
@@ -165,6 +170,20 @@ constexpr std::array kKeys = {
             "highest index), widening the search as needed; `modes` is then a first guess."},
     CaseKey{"solve", "target_index", K::number, "", "highest index in the case", "", B::positive,
             "Effective index around which modes are sought (the shift of the eigensolver)."},
+
+    CaseKey{"solve", "check_pml", K::boolean, "", "false", "", B::any,
+            "Solve again with a doubled PML strength and flag every loss that changes by more than "
+            "5 % (the loss is then set by the PML or the mesh, not by the guide)."},
+
+    // ---- a bend of the whole cross-section ----
+    CaseKey{"bend", "radius_um", K::number, "µm", "required", "", B::positive,
+            "Bend radius, measured to the centre of the domain."},
+    CaseKey{"bend", "direction_deg", K::number, "deg", "0", "", B::any,
+            "Direction from the centre of curvature towards the outside of the bend (0: +x)."},
+    CaseKey{"bend", "model", K::text, "", "\"exact\"", "", B::any,
+            "\"exact\": the equivalent straight guide of a coordinate transformation (ε and μ "
+            "scaled by 1 + u/R; Shyroki 2008); \"conformal\": the scalar index n(1 + u/R) "
+            "(Heiblum & Harris 1975), for comparison."},
 
     // ---- geometry from a file instead of [domain] shapes and [[region]] ----
     CaseKey{"import", "path", K::text, "", "required", "", B::any,

@@ -66,12 +66,14 @@ int run_solve(const Args& args) {
     const auto& mode = sol.modes[m];
     ModeRow row;
     row.n_eff = mode.mode.n_eff;
-    row.n_eff_imag = 0.0;
-    row.loss_db_per_m = loss_db_per_m(0.0, c.wavelength_um);
+    row.n_eff_imag = mode.n_eff_imag;
+    row.loss_db_per_m = mode.loss_db_per_m;
     row.label = mode.label;
     row.residual = mode.mode.residual;
     row.metrics = mode.metrics;
     point.modes.push_back(row);
+    for (const auto& w : mode.warnings) progress.note("warning: " + w);
+    if (!mode.fields) continue;
     char name[32];
     std::snprintf(name, sizeof name, "mode_%02zu.vtu", m + 1);
     write_vtu(mesh, mode_field_arrays(c, mesh, mode), out.staging() / name);
@@ -90,10 +92,21 @@ int run_solve(const Args& args) {
   progress.note("wrote " + out_dir.string());
 
   if (!cl.has("quiet")) {
-    std::printf("%-5s %-12s %18s %12s\n", "mode", "label", "n_eff", "residual");
+    bool lossy = false;
+    for (const auto& row : point.modes) lossy = lossy || row.n_eff_imag > 0;
+    if (lossy) {
+      std::printf("%-5s %-12s %18s %12s %14s %12s\n", "mode", "label", "n_eff", "n_eff_imag", "loss_db_per_m", "residual");
+    } else {
+      std::printf("%-5s %-12s %18s %12s\n", "mode", "label", "n_eff", "residual");
+    }
     for (std::size_t m = 0; m < point.modes.size(); ++m) {
-      std::printf("%-5zu %-12s %18.12f %12.2e\n", m + 1, point.modes[m].label.c_str(),
-                  point.modes[m].n_eff, point.modes[m].residual);
+      const auto& row = point.modes[m];
+      if (lossy) {
+        std::printf("%-5zu %-12s %18.12f %12.4e %14.6g %12.2e\n", m + 1, row.label.c_str(), row.n_eff,
+                    row.n_eff_imag, row.loss_db_per_m, row.residual);
+      } else {
+        std::printf("%-5zu %-12s %18.12f %12.2e\n", m + 1, row.label.c_str(), row.n_eff, row.residual);
+      }
     }
   }
   return 0;

@@ -1,46 +1,65 @@
 #include "io/solve_case.hpp"
 
+#include <cassert>
 #include <cmath>
+#include <numbers>
 #include <string>
 
 #include "io/progress.hpp"
 #include "mesh/error.hpp"
+#include "solver/bend.hpp"
 #include "solver/material.hpp"
+#include "solver/pml.hpp"
 
 namespace cladwise::io {
 
-ModeProblem mode_problem(const CaseSpec& c, const Mesh& mesh) {
-  ModeProblem p;
-  p.mesh = &mesh;
-  p.wavelength_um = c.wavelength_um;
-  p.order = mesh.order;
-  for (const auto& region : mesh.regions) {
-    if (region.role == RegionRole::pml) {
-      throw InputError(c.geometry.outer.where + " key 'pml_thickness_um'",
-                       "leaky-mode solving with a perfectly matched layer is not available in "
-                       "this version; set pml_thickness_um = 0 (the outer wall then closes the "
-                       "domain) to compute the real part of the effective indices");
-    }
-    const MaterialSpec* m = c.find_material(region.material);
-    if (!m) throw InputError(c.path.string(), "region '" + region.name + "' names material '" + region.material + "', which the case does not define");
-    const PermittivityTensor eps = m->permittivity(c.wavelength_um);
-    if (!eps.is_real() || !eps.is_diagonal()) {
-      throw InputError(m->where + " [materials] '" + m->name + "'",
-                       "absorbing, metallic and rotated-crystal materials need the complex solver, "
-                       "which is not available in this version");
-    }
-    p.region_materials.push_back(diagonal_material(eps.xx.real(), eps.yy.real(), eps.zz.real(), m->name));
+namespace {
+
+const MaterialSpec& region_material(const CaseSpec& c, const Region& region) {
+  const MaterialSpec* m = c.find_material(region.material);
+  if (!m) {
+    throw InputError(c.path.string(), "region '" + region.name + "' names material '" +
+                                          region.material + "', which the case does not define");
   }
+  return *m;
+}
+
+std::vector<WallType> walls(const CaseSpec& c, const Mesh& mesh) {
+  std::vector<WallType> out;
   for (const auto& b : mesh.boundaries) {
     WallKind w = c.walls.outer;
     if (b.kind == BoundaryKind::symmetry_x) w = c.walls.x_axis;
     if (b.kind == BoundaryKind::symmetry_y) w = c.walls.y_axis;
-    p.boundary_walls.push_back(w == WallKind::electric ? WallType::electric : WallType::magnetic);
+    out.push_back(w == WallKind::electric ? WallType::electric : WallType::magnetic);
   }
-  return p;
+  return out;
 }
 
-CaseSolution solve_case(const CaseSpec& c, const Mesh& mesh, Progress* progress) {
+void check_target(const CaseSpec& c, double max_index) {
+  if (c.solve.target_index && *c.solve.target_index > max_index) {
+    throw InputError(c.path.string() + " [solve] key 'target_index'",
+                     "is above every material index (" + std::to_string(max_index) +
+                         "); no mode can have an effective index there");
+  }
+}
+
+void check_status(EigenStatus status, Progress* progress) {
+  switch (status) {
+    case EigenStatus::converged:
+      break;
+    case EigenStatus::search_incomplete:
+      if (progress) progress->note("warning: the search for every guided mode stopped at its cap; modes below the last one found may be missing");
+      break;
+    case EigenStatus::factorization_failed:
+      throw ComputationError("the shifted matrix is singular at the target index; move [solve] target_index slightly");
+    case EigenStatus::not_converged:
+      throw ComputationError("the eigensolver did not converge; try a target_index nearer the expected modes or fewer modes");
+    case EigenStatus::residual_too_large:
+      throw ComputationError("an eigenpair failed the residual check; refine the mesh or change target_index");
+  }
+}
+
+CaseSolution solve_lossless(const CaseSpec& c, const Mesh& mesh, Progress* progress) {
   ModeSolver solver(mode_problem(c, mesh));
   if (progress) {
     solver.set_progress([progress](std::string_view stage, double f) { progress->update(stage, f); });
@@ -53,25 +72,9 @@ CaseSolution solve_case(const CaseSpec& c, const Mesh& mesh, Progress* progress)
     // Guided modes lie above the background (cladding) index.
     request.n_lower_bound = c.find_material(c.geometry.background_material)->max_index(c.wavelength_um);
   }
-  if (c.solve.target_index && *c.solve.target_index > solver.max_material_index()) {
-    throw InputError(c.path.string() + " [solve] key 'target_index'",
-                     "is above every material index (" + std::to_string(solver.max_material_index()) +
-                         "); no mode can have an effective index there");
-  }
+  check_target(c, solver.max_material_index());
   const SolveResult result = solver.solve(request);
-  switch (result.status) {
-    case EigenStatus::converged:
-      break;
-    case EigenStatus::search_incomplete:
-      if (progress) progress->note("warning: the search for every guided mode stopped at its cap; modes below the last one found may be missing");
-      break;
-    case EigenStatus::factorization_failed:
-      throw ComputationError("the shifted matrix is singular at the target index; move [solve] target_index slightly");
-    case EigenStatus::not_converged:
-      throw ComputationError("the eigensolver did not converge; try a target_index nearer the expected modes or fewer modes");
-    case EigenStatus::residual_too_large:
-      throw ComputationError("an eigenpair failed the residual check (" + std::string(to_string(result.status)) + "); refine the mesh or change target_index");
-  }
+  check_status(result.status, progress);
   if (result.modes.empty()) {
     throw ComputationError("no guided mode found near the target index; check the materials (is the core index above the cladding?) or set [solve] target_index");
   }
@@ -91,14 +94,139 @@ CaseSolution solve_case(const CaseSpec& c, const Mesh& mesh, Progress* progress)
   return out;
 }
 
+CaseSolution solve_leaky(const CaseSpec& c, const Mesh& mesh, Progress* progress) {
+  if (progress) progress->update("complex solve");
+  ComplexModeSolver solver(leaky_mode_problem(c, mesh));
+  check_target(c, solver.max_physical_index());
+  if (c.solve.all_guided) {
+    throw InputError(c.path.string() + " [solve] key 'all_guided'",
+                     "is for lossless guides; with a PML, lossy materials or a bend ask for a number of modes");
+  }
+  LeakySolveRequest request;
+  request.n_modes = c.solve.n_modes;
+  request.n_target = c.solve.target_index;
+  if (c.solve.check_pml) request.pml_check_factor = 2.0;
+  const LeakySolveResult result = solver.solve(request);
+  check_status(result.status, progress);
+  if (result.modes.empty()) {
+    throw ComputationError("no mode found near the target index (" + std::to_string(result.n_pml_modes_dropped) +
+                           " solutions living in the PML were dropped); set [solve] target_index near the expected effective index");
+  }
+  CaseSolution out;
+  out.timing = result.timing;
+  out.n_dofs = result.n_dofs;
+  out.status = result.status;
+  for (std::size_t i = 0; i < result.modes.size(); ++i) {
+    const LeakyMode& lm = result.modes[i];
+    SolvedMode sm;
+    sm.mode.beta = lm.beta.real();
+    sm.mode.n_eff = lm.n_eff.real();
+    sm.mode.residual = lm.residual;
+    sm.n_eff_imag = lm.n_eff_imag;
+    sm.loss_db_per_m = lm.loss_db_per_m;
+    sm.label = "mode" + std::to_string(i + 1);
+    sm.metrics.push_back({"beta_per_um", lm.beta.real()});
+    sm.metrics.push_back({"physical_domain_fraction", lm.physical_fraction});
+    if (c.bend) {
+      // Loss of a 90° and of a full turn of the bend: the arc length is R·angle (µm → m).
+      sm.metrics.push_back({"bend_loss_db_per_90deg", bend_loss_db(lm.loss_db_per_m, c.bend->radius_um, 0.5 * std::numbers::pi)});
+      sm.metrics.push_back({"bend_loss_db_per_turn", bend_loss_db(lm.loss_db_per_m, c.bend->radius_um, 2.0 * std::numbers::pi)});
+    }
+    if (std::isfinite(lm.pml_loss_change)) sm.metrics.push_back({"pml_loss_change", lm.pml_loss_change});
+    if (lm.loss_unresolved) {
+      sm.warnings.push_back("the loss of " + sm.label + " is below what the PML and mesh resolve (it changes with the PML or lies at rounding level); treat it as an upper bound");
+    }
+    if (lm.gain) sm.warnings.push_back(sm.label + " shows gain (Im n_eff > 0): not a passive mode; check the materials' loss signs");
+    out.modes.push_back(std::move(sm));
+  }
+  return out;
+}
+
+}  // namespace
+
+bool needs_complex_solver(const CaseSpec& c, const Mesh& mesh) {
+  if (c.bend) return true;
+  for (const auto& region : mesh.regions) {
+    if (region.role == RegionRole::pml) return true;
+    const PermittivityTensor eps = region_material(c, region).permittivity(c.wavelength_um);
+    if (!eps.is_real() || !eps.is_diagonal() || eps.xx.real() <= 0 || eps.yy.real() <= 0 || eps.zz.real() <= 0) return true;
+  }
+  return false;
+}
+
+ModeProblem mode_problem(const CaseSpec& c, const Mesh& mesh) {
+  ModeProblem p;
+  p.mesh = &mesh;
+  p.wavelength_um = c.wavelength_um;
+  p.order = mesh.order;
+  for (const auto& region : mesh.regions) {
+    const MaterialSpec& m = region_material(c, region);
+    const PermittivityTensor eps = m.permittivity(c.wavelength_um);
+    assert(eps.is_real() && eps.is_diagonal());
+    p.region_materials.push_back(diagonal_material(eps.xx.real(), eps.yy.real(), eps.zz.real(), m.name));
+  }
+  p.boundary_walls = walls(c, mesh);
+  return p;
+}
+
+LeakyModeProblem leaky_mode_problem(const CaseSpec& c, const Mesh& mesh) {
+  LeakyModeProblem p;
+  p.mesh = &mesh;
+  p.wavelength_um = c.wavelength_um;
+  p.order = mesh.order;
+  bool has_pml = false;
+  for (const auto& region : mesh.regions) {
+    const MaterialSpec& m = region_material(c, region);
+    const PermittivityTensor eps = m.permittivity(c.wavelength_um);
+    TensorMaterial t;
+    t.name = m.name;
+    t.eps_t << eps.xx, eps.xy, eps.xy, eps.yy;
+    t.eps_zz = eps.zz;
+    p.region_materials.push_back(t);
+    has_pml = has_pml || region.role == RegionRole::pml;
+  }
+  p.boundary_walls = walls(c, mesh);
+  if (has_pml) {
+    const auto& o = c.geometry.outer;
+    Pml pml;
+    pml.centre = o.centre;
+    pml.thickness = o.pml_thickness;
+    pml.power = c.pml.power;
+    pml.strength = c.pml.strength;
+    if (o.kind == OuterBoundary::Kind::disk) {
+      pml.shape = PmlShape::cylindrical;
+      pml.inner_radius = o.radius;
+    } else {
+      pml.shape = PmlShape::cartesian;
+      pml.half_width = 0.5 * o.width;
+      pml.half_height = 0.5 * o.height;
+    }
+    p.pml = pml;
+  }
+  if (c.bend) {
+    Bend b;
+    b.radius_um = c.bend->radius_um;
+    b.direction_deg = c.bend->direction_deg;
+    b.origin = c.geometry.outer.centre;
+    b.model = c.bend->conformal ? BendModel::conformal_index : BendModel::exact_transformation;
+    p.bend = b;
+  }
+  return p;
+}
+
+CaseSolution solve_case(const CaseSpec& c, const Mesh& mesh, Progress* progress) {
+  return needs_complex_solver(c, mesh) ? solve_leaky(c, mesh, progress) : solve_lossless(c, mesh, progress);
+}
+
 std::vector<VtkArray> mode_field_arrays(const CaseSpec& c, const Mesh& mesh, const SolvedMode& m) {
+  assert(m.fields);
   const std::size_t n = mesh.nodes.size();
   VtkArray e_re{"E_re", 3, {}, false}, e_im{"E_im", 3, {}, false};
   VtkArray h_re{"H_re", 3, {}, false}, h_im{"H_im", 3, {}, false};
   VtkArray e2{"E_abs2", 1, {}, false}, sz{"S_z", 1, {}, false};
   for (std::size_t i = 0; i < n; ++i) {
-    const auto& e = m.fields.e[i];
-    const auto& h = m.fields.h[i];
+    const auto& e = m.fields->e[i];
+    const auto& h = m.fields->h[i];
     for (int k = 0; k < 3; ++k) {
       e_re.values.push_back(e[k].real());
       e_im.values.push_back(e[k].imag());
@@ -106,7 +234,7 @@ std::vector<VtkArray> mode_field_arrays(const CaseSpec& c, const Mesh& mesh, con
       h_im.values.push_back(h[k].imag());
     }
     e2.values.push_back(e.squaredNorm());
-    sz.values.push_back(m.fields.s_z[i]);
+    sz.values.push_back(m.fields->s_z[i]);
   }
   VtkArray index{"index", 1, {}, true};
   for (int t = 0; t < mesh.n_triangles(); ++t) {

@@ -3,6 +3,7 @@
 // Shared by `solve` and `verify`.
 #pragma once
 
+#include <optional>
 #include <string>
 #include <utility>
 #include <vector>
@@ -12,6 +13,7 @@
 #include "mesh/mesh.hpp"
 #include "solver/mode.hpp"
 #include "solver/mode_fields.hpp"
+#include "solver/complex_mode_solver.hpp"
 #include "solver/mode_solver.hpp"
 
 namespace cladwise::io {
@@ -19,10 +21,13 @@ namespace cladwise::io {
 class Progress;
 
 struct SolvedMode {
-  Mode mode;
+  Mode mode;                 ///< real parts: n_eff = Re n_eff, beta = Re β; eigenvector only for lossless modes
+  double n_eff_imag = 0;     ///< |Im n_eff| (docs/conventions.md)
+  double loss_db_per_m = 0;
   std::string label;
   std::vector<std::pair<std::string, double>> metrics;
-  NodalFields fields;  ///< normalised to 1 W, at mesh nodes
+  std::optional<NodalFields> fields;  ///< normalised to 1 W, at mesh nodes (none: not available)
+  std::vector<std::string> warnings;  ///< e.g. a loss below what the PML and mesh resolve
 };
 
 struct CaseSolution {
@@ -32,9 +37,14 @@ struct CaseSolution {
   EigenStatus status = EigenStatus::converged;
 };
 
-/// The solver's problem for a case on a mesh. Throws InputError for what the solver cannot do
-/// yet (e.g. a PML shell) or a material the mesh names but the case lacks.
+/// True when the case needs the complex solver: a PML shell, a lossy, metallic or rotated
+/// material, or a bend.
+bool needs_complex_solver(const CaseSpec& c, const Mesh& mesh);
+
+/// The real solver's problem for a lossless case on a mesh.
 ModeProblem mode_problem(const CaseSpec& c, const Mesh& mesh);
+/// The complex solver's problem (PML, bend, complex and tensor materials).
+LeakyModeProblem leaky_mode_problem(const CaseSpec& c, const Mesh& mesh);
 
 /// Solves the case; throws ComputationError (exit 1) when no mode converges or none is found.
 CaseSolution solve_case(const CaseSpec& c, const Mesh& mesh, Progress* progress = nullptr);

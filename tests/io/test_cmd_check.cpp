@@ -43,7 +43,8 @@ TEST(CheckCommand, ExampleCasesMeshWithExactAreas) {
       {"cases/elliptical_core.toml", "core", pi * 2.0 * 1.0},              // π a b
       {"cases/step_index_smf.toml", "core", pi * 4.1 * 4.1},               // π a²
       {"cases/seven_core.toml", "cores", 7 * pi * 4.1 * 4.1},              // 7 disks
-      {"cases/six_hole_pcf.toml", "holes", 6 * pi * 2.5 * 2.5},            // 1 + 3·1·2 − 1 = 6 holes
+      {"cases/six_hole_pcf.toml", "holes", 6 * pi * 2.5 * 2.5 / 4},        // 6 holes, quarter domain
+      {"cases/bent_fibre.toml", "core", pi * 4.1 * 4.1 / 2},               // half domain
       {"cases/rib_waveguide.toml", "rib", 6.0 * 0.09 + 0.5 * 0.13},        // slab + rib rectangles
       {"cases/stress_rod_pm_fibre.toml", "rods", 2 * pi * 8.0 * 8.0},      // two rods
   };
