@@ -610,6 +610,7 @@ CaseSpec read_case(const toml::table& root, const std::filesystem::path& path) {
     c.solve.all_guided = r.boolean("all_guided").value_or(false);
     c.solve.target_index = r.number("target_index");
     c.solve.check_pml = r.boolean("check_pml").value_or(false);
+    c.solve.nonlinear_index_m2_per_w = r.number_or("nonlinear_index_m2_per_w", c.solve.nonlinear_index_m2_per_w);
     r.finish();
   }
 

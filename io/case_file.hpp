@@ -28,6 +28,7 @@ struct SolveSpec {
   bool all_guided = false;
   std::optional<double> target_index;
   bool check_pml = false;
+  double nonlinear_index_m2_per_w = 2.6e-20;  ///< n2 of the glass that carries the mode
 };
 
 /// Absorption profile of the PML shell (its thickness is CrossSection::outer.pml_thickness).

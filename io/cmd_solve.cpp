@@ -7,6 +7,7 @@
 #include <cmath>
 #include <cstdio>
 #include <filesystem>
+#include <optional>
 
 #include "io/case_file.hpp"
 #include "io/cli_options.hpp"
@@ -92,12 +93,20 @@ int run_solve(const Args& args) {
   progress.note("wrote " + out_dir.string());
 
   if (!cl.has("quiet")) {
+    auto metric = [](const ModeRow& row, const std::string& key) -> std::optional<double> {
+      for (const auto& [k, v] : row.metrics) {
+        if (k == key) return v;
+      }
+      return std::nullopt;
+    };
     bool lossy = false;
     for (const auto& row : point.modes) lossy = lossy || row.n_eff_imag > 0;
     if (lossy) {
       std::printf("%-5s %-12s %18s %12s %14s %12s\n", "mode", "label", "n_eff", "n_eff_imag", "loss_db_per_m", "residual");
     } else {
-      std::printf("%-5s %-12s %18s %12s\n", "mode", "label", "n_eff", "residual");
+      const bool with_metrics = !point.modes.empty() && metric(point.modes[0], "effective_area_um2");
+      std::printf("%-5s %-20s %18s %12s%s\n", "mode", "label", "n_eff", "residual",
+                  with_metrics ? "  a_eff_um2   mfd_um" : "");
     }
     for (std::size_t m = 0; m < point.modes.size(); ++m) {
       const auto& row = point.modes[m];
@@ -105,7 +114,17 @@ int run_solve(const Args& args) {
         std::printf("%-5zu %-12s %18.12f %12.4e %14.6g %12.2e\n", m + 1, row.label.c_str(), row.n_eff,
                     row.n_eff_imag, row.loss_db_per_m, row.residual);
       } else {
-        std::printf("%-5zu %-12s %18.12f %12.2e\n", m + 1, row.label.c_str(), row.n_eff, row.residual);
+        std::printf("%-5zu %-20s %18.12f %12.2e", m + 1, row.label.c_str(), row.n_eff, row.residual);
+        if (auto a = metric(row, "effective_area_um2")) std::printf(" %12.4f", *a);
+        if (auto d = metric(row, "mfd_petermann_um")) std::printf(" %10.4f", *d);
+        std::printf("\n");
+      }
+    }
+    for (const auto& row : point.modes) {
+      if (auto b = metric(row, "birefringence")) {
+        std::printf("\nfundamental pair: birefringence %.6g, beat length %.6g mm\n", *b,
+                    metric(row, "beat_length_mm").value_or(NAN));
+        break;
       }
     }
   }

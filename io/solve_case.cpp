@@ -9,11 +9,16 @@
 #include "mesh/error.hpp"
 #include "solver/bend.hpp"
 #include "solver/material.hpp"
+#include "solver/mesh_locator.hpp"
+#include "solver/mode_labels.hpp"
+#include "solver/mode_metrics.hpp"
 #include "solver/pml.hpp"
 
 namespace cladwise::io {
 
 namespace {
+
+constexpr double kResolvableBirefringence = 1e-7;
 
 const MaterialSpec& region_material(const CaseSpec& c, const Region& region) {
   const MaterialSpec* m = c.find_material(region.material);
@@ -41,6 +46,39 @@ void check_target(const CaseSpec& c, double max_index) {
                      "is above every material index (" + std::to_string(max_index) +
                          "); no mode can have an effective index there");
   }
+}
+
+/// Centre and radius of the case's core when it is one round disk (for vector mode labels).
+std::optional<std::pair<Point2, double>> circular_core(const CaseSpec& c) {
+  if (c.import) return std::nullopt;
+  const RegionSpec* core = nullptr;
+  for (const auto& r : c.geometry.regions) {
+    if (!r.guiding) continue;
+    if (core) return std::nullopt;  // several guiding regions: not one round core
+    core = &r;
+  }
+  if (!core || core->shapes.size() != 1) return std::nullopt;
+  const auto* disk = std::get_if<Disk>(&core->shapes[0].geometry);
+  if (!disk) return std::nullopt;
+  return std::pair{core->shapes[0].placement.offset, disk->radius};
+}
+
+void append_metrics(std::vector<std::pair<std::string, double>>& out, const ModeMetrics& m) {
+  out.insert(out.end(), {{"effective_area_um2", m.effective_area_um2},
+                         {"mfd_petermann_um", m.mfd_petermann_um},
+                         {"mfd_petermann_x_um", m.mfd_petermann_x_um},
+                         {"mfd_petermann_y_um", m.mfd_petermann_y_um},
+                         {"mfd_gaussian_um", m.mfd_gaussian_um},
+                         {"width_1e2_x_um", m.width_1e2_x_um},
+                         {"width_1e2_y_um", m.width_1e2_y_um},
+                         {"centroid_x_um", m.centroid_x_um},
+                         {"centroid_y_um", m.centroid_y_um},
+                         {"te_fraction", m.te_fraction},
+                         {"tm_fraction", m.tm_fraction},
+                         {"polarisation_angle_deg", m.polarisation_angle_deg},
+                         {"x_fraction", m.x_fraction},
+                         {"nonlinear_coefficient_per_w_km", m.nonlinear_coefficient_per_w_km}});
+  for (const auto& rp : m.power_fraction) out.push_back({"power_fraction_" + rp.region, rp.fraction});
 }
 
 void check_status(EigenStatus status, Progress* progress) {
@@ -82,14 +120,46 @@ CaseSolution solve_lossless(const CaseSpec& c, const Mesh& mesh, Progress* progr
   out.timing = result.timing;
   out.n_dofs = result.n_dofs;
   out.status = result.status;
+  // Metrics integrate over the whole cross-section; a symmetry cut would need the mirror images.
+  const bool full_section = c.import || c.geometry.symmetry == SymmetryCut::none;
+  const MeshLocator locator(mesh);
+  LabelOptions label_options;
+  if (const auto core = circular_core(c)) {
+    label_options.centre = core->first;
+    label_options.core_radius_um = core->second;
+  }
+  MetricOptions metric_options;
+  metric_options.n2_m2_per_w = c.solve.nonlinear_index_m2_per_w;
+  metric_options.locator = &locator;
+  std::vector<ModeMetrics> all_metrics;
   for (std::size_t i = 0; i < result.modes.size(); ++i) {
+    if (progress) progress->update("mode metrics", static_cast<double>(i) / result.modes.size());
     SolvedMode sm;
     sm.mode = result.modes[i];
     sm.label = "mode" + std::to_string(i + 1);
     const ModeFieldEvaluator fields(solver.problem(), solver.dof_map(), sm.mode);
     sm.fields = fields.at_nodes();
     sm.metrics.push_back({"beta_per_um", sm.mode.beta});
+    if (full_section) {
+      sm.label = label_mode(fields, locator, label_options).label;
+      const ModeMetrics mm = mode_metrics(fields, solver.problem(), solver.dof_map(), sm.mode, metric_options);
+      append_metrics(sm.metrics, mm);
+      all_metrics.push_back(mm);
+    }
     out.modes.push_back(std::move(sm));
+  }
+  if (full_section) {
+    if (const auto pair = fundamental_polarisation_pair(all_metrics)) {
+      const Birefringence b = birefringence(out.modes[pair->x_mode].mode.n_eff,
+                                            out.modes[pair->y_mode].mode.n_eff, c.wavelength_um);
+      // Below 1e-7 the two partners of a degenerate pair differ by discretisation noise (about
+      // 1e-8 on the example meshes of a round fibre), so no birefringence is claimed.
+      if (std::abs(b.phase) >= kResolvableBirefringence)
+      for (int i : {pair->x_mode, pair->y_mode}) {
+        out.modes[i].metrics.push_back({"birefringence", b.phase});
+        out.modes[i].metrics.push_back({"beat_length_mm", b.beat_length_mm});
+      }
+    }
   }
   return out;
 }

@@ -92,6 +92,16 @@ TEST(SolveCommand, WritesTheResultsContractForTheEllipticalCoreCase) {
   const double birefringence = n_eff[0] - n_eff[1];
   EXPECT_GT(birefringence, 1e-5);
   EXPECT_LT(birefringence, 1e-3);
+  // Reported metrics: B = n_x − n_y and the beat length L_B = λ/B (definitions), the labels of
+  // the two polarisations, and an effective area that lies between the core area (π·2·1 µm²)
+  // and the domain.
+  const auto& m1 = point.get_child("modes").begin()->second;
+  EXPECT_EQ(m1.get<std::string>("label"), "x-pol fundamental");
+  EXPECT_NEAR(m1.get<double>("birefringence"), birefringence, 1e-15);
+  EXPECT_NEAR(m1.get<double>("beat_length_mm"), 1.55e-3 / birefringence, 1e-9);
+  EXPECT_GT(m1.get<double>("effective_area_um2"), 2 * 3.14159);
+  EXPECT_LT(m1.get<double>("effective_area_um2"), 100.0);
+  EXPECT_NEAR(m1.get<double>("power_fraction_core") + m1.get<double>("power_fraction_background"), 1.0, 1e-9);
 
   // modes.csv: a header with units in the names and one row per mode.
   std::istringstream csv(slurp(out / "modes.csv"));
@@ -138,4 +148,19 @@ TEST(SolveCommand, BadInputExitsTwoAndWritesNothing) {
   EXPECT_EQ(r.status, 2);
   EXPECT_NE(r.err.find("--threads"), std::string::npos) << r.err;
   fs::remove_all(dir);
+}
+
+TEST(SolveCommand, RoundFibreModesCarryVectorLabels) {
+  // The weakly guiding verification fibre guides only HE11 (V = 2.135 < 2.405; exact module),
+  // both polarisations; no birefringence is claimed for a degenerate pair.
+  const fs::path out = fresh_dir("smf");
+  const auto r = run_cli("solve " + source_path("cases/step_index_smf.toml") + " --quiet --out " + out.string());
+  ASSERT_EQ(r.status, 0) << r.err;
+  pt::ptree j;
+  pt::read_json((out / "modes.json").string(), j);
+  for (const auto& m : j.get_child("points").begin()->second.get_child("modes")) {
+    EXPECT_EQ(m.second.get<std::string>("label"), "HE11");
+    EXPECT_FALSE(m.second.get_optional<double>("beat_length_mm"));
+  }
+  fs::remove_all(out);
 }
