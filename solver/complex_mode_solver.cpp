@@ -10,6 +10,7 @@
 #include <cmath>
 #include <numbers>
 #include <string>
+#include <utility>
 
 #include "mesh/error.hpp"
 #include "solver/element_kernels.hpp"
@@ -101,7 +102,66 @@ double element_e_squared(const ElementGeometry& g, const Complex* c_t, const Com
   return sum;
 }
 
+// ∫|E|² dA over one element (first) and over the part of it inside the disk |x − c| < r (second),
+// by the same quadrature as element_e_squared.
+template <int Order>
+std::pair<double, double> element_e_squared_in_disk(const ElementGeometry& g, const Complex* c_t,
+                                                    const Complex* c_z, Complex beta,
+                                                    const QuadratureRule& rule,
+                                                    const Eigen::Vector2d& centre, double radius) {
+  typename NedelecTriangle<Order>::Values n;
+  typename NedelecTriangle<Order>::Curls curl;
+  typename LagrangeTriangle<Order>::Values l;
+  typename LagrangeTriangle<Order>::Gradients gl;
+  double all = 0.0, inside = 0.0;
+  for (int q = 0; q < rule.n_points(); ++q) {
+    const Eigen::Vector2d& xi = rule.points[q];
+    const MappedPoint m = map_point(g, xi);
+    edge_basis<Order>(m, xi, n, curl);
+    nodal_basis<Order>(m, xi, l, gl);
+    Eigen::Vector2cd et = Eigen::Vector2cd::Zero();
+    Complex ez = 0.0;
+    for (int i = 0; i < NedelecTriangle<Order>::n_functions; ++i) et += c_t[i] * n.col(i);
+    for (int i = 0; i < LagrangeTriangle<Order>::n_functions; ++i) ez += c_z[i] * l[i];
+    const double e2 = rule.weights[q] * m.det * ((et / beta).squaredNorm() + std::norm(ez));
+    all += e2;
+    if ((m.x - centre).norm() < radius) inside += e2;
+  }
+  return {all, inside};
+}
+
+void validate(const CoreSelection& core, const Mesh& mesh) {
+  for (int r : core.regions) {
+    if (r < 0 || r >= static_cast<int>(mesh.regions.size())) {
+      throw InputError("core.regions", "region index " + std::to_string(r) + " is not a region of "
+                                       "the mesh (it has " + std::to_string(mesh.regions.size()) +
+                                       "); list the core's mesh regions");
+    }
+    if (mesh.regions[r].role == RegionRole::pml) {
+      throw InputError("core.regions", "region '" + mesh.regions[r].name + "' is a PML region; "
+                                       "the core must be physical");
+    }
+  }
+  if (core.regions.empty() && !(core.radius_um > 0.0 && std::isfinite(core.radius_um))) {
+    throw InputError("core.radius_um", "give the core as mesh regions or as a disk of positive "
+                                       "radius, got radius " + std::to_string(core.radius_um));
+  }
+  if (!(core.min_fraction >= 0.0 && core.min_fraction <= 1.0)) {
+    throw InputError("core.min_fraction", "must lie in [0, 1], got " +
+                                              std::to_string(core.min_fraction));
+  }
+}
+
 }  // namespace
+
+TensorMaterial leaky_medium_at(const LeakyModeProblem& p, int region, const Eigen::Vector2d& x) {
+  TensorMaterial m = p.region_materials[region];
+  if (p.bend) m = bent_material(*p.bend, m, x);
+  if (p.pml && p.mesh->regions[region].role == RegionRole::pml) {
+    return stretched_material(m, pml_stretch_jacobian(*p.pml, x));
+  }
+  return m;
+}
 
 double loss_db_per_m(double k0_per_um, double n_eff_imag) {
   // 20 log10(e) = 20 / ln 10: amplitude decay exp(−k0 |Im n_eff| z) in dB of power per metre.
@@ -163,12 +223,8 @@ void ComplexModeSolver::set_pml_strength(double strength) {
 }
 
 MaterialTensors<Complex> ComplexModeSolver::tensors_at(int region, const Eigen::Vector2d& x) const {
-  TensorMaterial m = problem_.region_materials[region];
-  if (problem_.bend) m = bent_material(*problem_.bend, m, x);
-  if (problem_.pml && problem_.mesh->regions[region].role == RegionRole::pml) {
-    return pml_tensors(*problem_.pml, m, x);
-  }
-  return material_tensors(m);
+  // pml_tensors(pml, m, x) is material_tensors(stretched_material(m, J(x))): the same arithmetic.
+  return material_tensors(leaky_medium_at(problem_, region, x));
 }
 
 void ComplexModeSolver::assemble() {
@@ -210,6 +266,43 @@ double ComplexModeSolver::physical_fraction(const Eigen::VectorXcd& x, Complex b
   return all > 0.0 ? phys / all : 0.0;
 }
 
+double ComplexModeSolver::core_fraction(const Eigen::VectorXcd& x, Complex beta,
+                                        const CoreSelection& core) const {
+  const Mesh& mesh = *problem_.mesh;
+  validate(core, mesh);
+  std::vector<char> in_core(mesh.regions.size(), 0);
+  for (int r : core.regions) in_core[r] = 1;
+  const bool by_disk = core.regions.empty();
+  const Eigen::Vector2d centre(core.centre[0], core.centre[1]);
+  const QuadratureRule& rule = triangle_rule(kernel_quadrature_degree(dofs_.order()));
+  double phys = 0.0, inside = 0.0;
+  int index[14];
+  double sign[14];
+  Complex c[14];
+  const int nt = dofs_.n_local_edge();
+  for (int t = 0; t < mesh.n_triangles(); ++t) {
+    const int region = mesh.triangle_region[t];
+    if (mesh.regions[region].role == RegionRole::pml) continue;
+    dofs_.element_dofs(t, index, sign);
+    for (int i = 0; i < dofs_.n_local(); ++i) c[i] = index[i] < 0 ? Complex(0.0) : sign[i] * x[index[i]];
+    const ElementGeometry g = element_geometry(mesh, t);
+    if (by_disk) {
+      const auto [all, in] =
+          dofs_.order() == 1
+              ? element_e_squared_in_disk<1>(g, c, c + nt, beta, rule, centre, core.radius_um)
+              : element_e_squared_in_disk<2>(g, c, c + nt, beta, rule, centre, core.radius_um);
+      phys += all;
+      inside += in;
+    } else {
+      const double e2 = dofs_.order() == 1 ? element_e_squared<1>(g, c, c + nt, beta, rule)
+                                           : element_e_squared<2>(g, c, c + nt, beta, rule);
+      phys += e2;
+      if (in_core[region]) inside += e2;
+    }
+  }
+  return phys > 0.0 ? inside / phys : 0.0;
+}
+
 LeakySolveResult ComplexModeSolver::solve(const LeakySolveRequest& request) {
   LeakySolveResult result = solve_once(request);
   if (!(request.pml_check_factor > 0.0) || !problem_.pml || result.modes.empty()) return result;
@@ -245,6 +338,7 @@ LeakySolveResult ComplexModeSolver::solve_once(const LeakySolveRequest& request)
   if (request.n_modes < 1) {
     throw InputError("n_modes", "must be at least 1, got " + std::to_string(request.n_modes));
   }
+  if (request.core) validate(*request.core, *problem_.mesh);
   if (!assembled_) assemble();
   result.timing.assembly_s = assembly_s_;
 
@@ -338,6 +432,7 @@ LeakySolveResult ComplexModeSolver::solve_once(const LeakySolveRequest& request)
     std::vector<Candidate> cands;
     result.n_eff_found.clear();
     result.n_pml_modes_dropped = 0;
+    result.n_core_rejected = 0;
     residual_failed = false;
     for (int i = 0; i < std::min(n_conv, nev); ++i) {
       if (theta[i] == 0.0) continue;
@@ -359,6 +454,14 @@ LeakySolveResult ComplexModeSolver::solve_once(const LeakySolveRequest& request)
       if (m.physical_fraction < request.min_physical_fraction) {
         ++result.n_pml_modes_dropped;
         continue;
+      }
+      // Core selection before the residual test: a rejected mode must not fail the status.
+      if (request.core) {
+        m.core_fraction = core_fraction(x, beta, *request.core);
+        if (!(m.core_fraction >= request.core->min_fraction)) {
+          ++result.n_core_rejected;
+          continue;
+        }
       }
       const Eigen::VectorXcd r = matrices_.a * x - lambda * (matrices_.b * x);
       m.residual = r.norm() / ((norm_a + std::abs(lambda) * norm_b) * x.norm());

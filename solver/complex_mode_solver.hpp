@@ -17,7 +17,10 @@
 // Results: β with Re β > 0, n_eff = β/k0; under exp(j(ωt − βz)) a lossy mode has Im n_eff < 0 and
 // is reported as n_eff_imag = |Im n_eff|, loss_db_per_m = 20 log10(e) k0 |Im n_eff| 1e6
 // (docs/conventions.md). Modes whose field lives in the PML (fraction of ∫|E|² in the physical
-// regions below a threshold) are dropped and counted.
+// regions below a threshold) are dropped and counted. An optional CoreSelection keeps only modes
+// with a given fraction of |E|² in the core and widens the search until enough are found (tight
+// bends, where the shift lands among whispering-gallery modes on the outside of the bend).
+// Fields of the modes: solver/leaky_mode_fields.hpp.
 #pragma once
 
 #include <Eigen/SparseCore>
@@ -50,6 +53,18 @@ struct LeakyModeProblem {
   std::optional<Bend> bend;
 };
 
+/// The core of a guide, for selecting core-guided modes among the many modes near a shift (the
+/// whispering-gallery modes on the outside of a tight bend, cladding and PML modes). The core is
+/// the union of the listed mesh regions, or, when `regions` is empty, the disk of `radius_um`
+/// about `centre` (tested at every quadrature point, so it needs no matching mesh region).
+struct CoreSelection {
+  std::vector<int> regions;     ///< mesh region indices of the core
+  Point2 centre{0.0, 0.0};      ///< disk centre (µm), used when `regions` is empty
+  double radius_um = 0.0;       ///< disk radius (µm), used when `regions` is empty
+  /// Keep a mode only if ∫_core |E|² dA / ∫_physical |E|² dA is at least this.
+  double min_fraction = 0.5;
+};
+
 struct LeakySolveRequest {
   int n_modes = 2;                     ///< modes wanted nearest the target
   std::optional<double> n_target;      ///< real shift n_eff; default: largest physical index
@@ -67,6 +82,10 @@ struct LeakySolveRequest {
   /// the mesh, not by the guide. Costs one more factorisation and eigen solve.
   double pml_check_factor = 0.0;
   double pml_check_tolerance = 0.05;
+  /// When set, modes below `core->min_fraction` of |E|² in the core are rejected (counted in
+  /// n_core_rejected), and nev widens (×2, up to max_eigenvalues) until n_modes core-guided modes
+  /// are found; the kept ones are still those nearest the shift.
+  std::optional<CoreSelection> core;
 };
 
 struct LeakyMode {
@@ -76,6 +95,8 @@ struct LeakyMode {
   double loss_db_per_m = 0.0;    ///< 20 log10(e) k0 |Im n_eff| 1e6
   double residual = 0.0;         ///< ‖Ax − λBx‖ / ((‖A‖₁ + |λ|‖B‖₁) ‖x‖₂)
   double physical_fraction = 1;  ///< ∫_physical |E|² / ∫_all |E|² (1 without a PML)
+  /// ∫_core |E|² / ∫_physical |E|² when a CoreSelection was requested (NaN otherwise).
+  double core_fraction = std::numeric_limits<double>::quiet_NaN();
   bool gain = false;             ///< Im n_eff > 0 beyond the floor: not a passive mode
   bool loss_unresolved = false;  ///< below the floor, or changed by the PML check
   /// Relative change of n_eff_imag under the PML check (NaN when not checked / no partner found).
@@ -91,6 +112,7 @@ struct LeakySolveResult {
   int n_dofs = 0;
   int n_eigenvalues = 0;         ///< nev of the last ARPACK run
   int n_pml_modes_dropped = 0;   ///< converged eigenpairs rejected as living in the PML
+  int n_core_rejected = 0;       ///< eigenpairs rejected by the CoreSelection (last nev)
   std::vector<std::complex<double>> n_eff_found;  ///< every converged eigenvalue as n_eff
 };
 
@@ -122,6 +144,12 @@ public:
   /// eigenvector of this solver with propagation constant beta.
   double physical_fraction(const Eigen::VectorXcd& x, std::complex<double> beta) const;
 
+  /// ∫_core |E|² dA / ∫_physical |E|² dA for an eigenvector of this solver (0 if it has no
+  /// physical field). Throws InputError for a region index outside the mesh or a non-positive
+  /// disk radius.
+  double core_fraction(const Eigen::VectorXcd& x, std::complex<double> beta,
+                       const CoreSelection& core) const;
+
   /// The kernel tensors of region r at x (bend and PML applied): what the assembly integrates.
   MaterialTensors<std::complex<double>> tensors_at(int region, const Eigen::Vector2d& x) const;
 
@@ -135,6 +163,12 @@ private:
   double assembly_s_ = 0.0;
   std::unique_ptr<Factorization> lu_;
 };
+
+/// The equivalent medium of mesh region `region` of `problem` at x (µm): the region's material,
+/// then the bend factors (solver/bend.hpp), then in PML regions the coordinate stretching
+/// (solver/pml.hpp). ComplexModeSolver assembles exactly this medium; the field evaluator
+/// (solver/leaky_mode_fields.hpp) takes μ from it.
+TensorMaterial leaky_medium_at(const LeakyModeProblem& problem, int region, const Eigen::Vector2d& x);
 
 /// 20 log10(e) k0 |Im n_eff| 1e6: power loss in dB/m for k0 in 1/µm (docs/conventions.md).
 double loss_db_per_m(double k0_per_um, double n_eff_imag);
