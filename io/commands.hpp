@@ -14,5 +14,6 @@ int run_step_index(const Args& args);  // io/cmd_step_index.cpp
 int run_check(const Args& args);       // io/cmd_check.cpp
 int run_solve(const Args& args);       // io/cmd_solve.cpp
 int run_verify(const Args& args);      // io/cmd_verify.cpp
+int run_splice(const Args& args);      // io/cmd_splice.cpp
 
 }  // namespace cladwise::io

@@ -21,6 +21,7 @@ const Command kCommands[] = {
     {"solve", "compute the modes of a case; writes modes.json, modes.csv, VTK", cladwise::io::run_solve},
     {"check", "validate a case and mesh it; no solve", cladwise::io::run_check},
     {"step-index", "exact modes of a round step-index fibre", cladwise::io::run_step_index},
+    {"splice", "butt-coupling efficiency between the modes of two cases", cladwise::io::run_splice},
     {"verify", "built-in verification against analytic cases", cladwise::io::run_verify},
 };
 

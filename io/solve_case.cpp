@@ -97,8 +97,12 @@ void check_status(EigenStatus status, Progress* progress) {
   }
 }
 
-CaseSolution solve_lossless(const CaseSpec& c, const Mesh& mesh, Progress* progress) {
-  ModeSolver solver(mode_problem(c, mesh));
+}  // namespace
+
+LosslessSolve run_lossless_solver(const CaseSpec& c, const Mesh& mesh, Progress* progress) {
+  LosslessSolve run;
+  run.solver = std::make_unique<ModeSolver>(mode_problem(c, mesh));
+  ModeSolver& solver = *run.solver;
   if (progress) {
     solver.set_progress([progress](std::string_view stage, double f) { progress->update(stage, f); });
   }
@@ -111,11 +115,20 @@ CaseSolution solve_lossless(const CaseSpec& c, const Mesh& mesh, Progress* progr
     request.n_lower_bound = c.find_material(c.geometry.background_material)->max_index(c.wavelength_um);
   }
   check_target(c, solver.max_material_index());
-  const SolveResult result = solver.solve(request);
-  check_status(result.status, progress);
-  if (result.modes.empty()) {
+  run.result = solver.solve(request);
+  check_status(run.result.status, progress);
+  if (run.result.modes.empty()) {
     throw ComputationError("no guided mode found near the target index; check the materials (is the core index above the cladding?) or set [solve] target_index");
   }
+  return run;
+}
+
+namespace {
+
+CaseSolution solve_lossless(const CaseSpec& c, const Mesh& mesh, Progress* progress) {
+  const LosslessSolve run = run_lossless_solver(c, mesh, progress);
+  const ModeSolver& solver = *run.solver;
+  const SolveResult& result = run.result;
   CaseSolution out;
   out.timing = result.timing;
   out.n_dofs = result.n_dofs;

@@ -3,6 +3,7 @@
 // Shared by `solve` and `verify`.
 #pragma once
 
+#include <memory>
 #include <optional>
 #include <string>
 #include <utility>
@@ -45,6 +46,14 @@ bool needs_complex_solver(const CaseSpec& c, const Mesh& mesh);
 ModeProblem mode_problem(const CaseSpec& c, const Mesh& mesh);
 /// The complex solver's problem (PML, bend, complex and tensor materials).
 LeakyModeProblem leaky_mode_problem(const CaseSpec& c, const Mesh& mesh);
+
+/// The real solver of a lossless case and its raw result (modes sorted by descending n_eff);
+/// throws ComputationError when none converges or none is found.
+struct LosslessSolve {
+  std::unique_ptr<ModeSolver> solver;
+  SolveResult result;
+};
+LosslessSolve run_lossless_solver(const CaseSpec& c, const Mesh& mesh, Progress* progress = nullptr);
 
 /// Solves the case; throws ComputationError (exit 1) when no mode converges or none is found.
 CaseSolution solve_case(const CaseSpec& c, const Mesh& mesh, Progress* progress = nullptr);
