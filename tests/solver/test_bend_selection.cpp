@@ -1,11 +1,14 @@
 // Core selection of the complex solver at a tight bend of the weakly guiding fibre (checks.md §2,
 // §5: n_co 1.4494, n_cl 1.4440, a 4.1 µm, λ 1.55 µm), exact equivalent straight guide (D. M.
 // Shyroki, IEEE Trans. MTT 56, 414 (2008)) with a cylindrical PML, half domain (x-polarised).
-// At R = 7.5 mm the shift near the straight LP01 lands among whispering-gallery modes on the outer
-// side of the bend; asking for a core-guided mode must return the fundamental mode, with most of
-// its power in the core, and a loss within a factor 1.5 of Marcuse's formula (D. Marcuse, JOSA 66,
-// 216 (1976); formula from memory, checks.md §5 table: 279.5 dB/m at 7.5 mm, computed from it).
-// At 0.28 dB/mm the formula's condition (loss ≪ 1 dB/mm) only just holds.
+// At R = 7.5 mm the default shift (the core index) lands among whispering-gallery modes on the outer
+// side of the bend (without a selection the solver returns one with 52 % of |E|² in the physical
+// domain and none in the core); asking for a core-guided mode must return the fundamental mode,
+// with most of its power in the core, and a loss within a factor 1.5 of Marcuse's formula
+// (D. Marcuse, JOSA 66, 216 (1976); formula from memory, checks.md §5 table: 279.5 dB/m at 7.5 mm,
+// computed from it). At 0.28 dB/mm the formula's condition (loss ≪ 1 dB/mm) only just holds, and
+// the FEM loss is 0.71 of it (200 dB/m, stable to 1 % for physical radii 40–60 µm, PML 6–10 µm,
+// σ_max 10–15, cladding mesh 1–2 µm; 0.80 at 10 mm, 0.60 at 5 mm where the formula fails).
 #include <gtest/gtest.h>
 
 #include <cmath>
@@ -20,7 +23,7 @@
 namespace cladwise {
 namespace {
 
-constexpr double kRPhys = 30.0, kTPml = 6.0;
+constexpr double kRPhys = 40.0, kTPml = 8.0;
 
 LeakyModeProblem bent_fibre_problem(const Mesh& mesh, double bend_radius_um) {
   LeakyModeProblem p;
@@ -69,13 +72,14 @@ TEST(BendSelection, CoreSelectionFindsTheFundamentalModeAtATightBend) {
   EXPECT_NEAR(marcuse, 279.5, 0.1);  // checks.md §5 table
 
   const Mesh mesh =
-      mesh_cross_section(testing::step_index_fibre(4.1, kRPhys, kTPml, 0.6, 1.5, SymmetryCut::half_upper));
+      mesh_cross_section(testing::step_index_fibre(4.1, kRPhys, kTPml, 0.6, 2.0, SymmetryCut::half_upper));
   const int core = region_index(mesh, "core");
   ASSERT_GE(core, 0);
   ComplexModeSolver s(bent_fibre_problem(mesh, radius));
   LeakySolveRequest q;
   q.n_modes = 1;
-  q.n_target = 1.4464;  // the straight fibre's LP01 is 1.44638
+  // No n_target: the default shift is the core index 1.4494, far above the straight LP01
+  // (1.44638) and inside the band of whispering-gallery modes.
   q.core = CoreSelection{};
   q.core->regions = {core};
   const LeakySolveResult r = s.solve(q);
@@ -87,8 +91,9 @@ TEST(BendSelection, CoreSelectionFindsTheFundamentalModeAtATightBend) {
               radius / 1000, m.n_eff.real(), m.n_eff.imag(), m.loss_db_per_m, marcuse, m.loss_db_per_m / marcuse,
               m.core_fraction, m.physical_fraction, r.n_eigenvalues, r.n_core_rejected, r.n_pml_modes_dropped,
               r.n_dofs);
-  // The shift really lands among other modes here: some were looked at and rejected.
-  EXPECT_GT(r.n_core_rejected + r.n_pml_modes_dropped, 0);
+  // The shift really lands among other modes here: modes that passed the PML test were rejected
+  // for having too little field in the core, and the search had to widen.
+  EXPECT_GT(r.n_core_rejected, 0);
   EXPECT_GT(m.core_fraction, 0.5);
   EXPECT_GT(m.physical_fraction, 0.99);
   EXPECT_LT(m.n_eff.imag(), 0.0);
