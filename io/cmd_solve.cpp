@@ -81,6 +81,7 @@ int run_solve(const Args& args) {
     pvd.push_back({static_cast<double>(m + 1), name});
   }
   write_pvd(pvd, out.staging() / "modes.pvd");
+  point.core_pairs = sol.core_pairs;
   run.points.push_back(point);
   run.mesh_s = report.seconds;
   run.assembly_s = sol.timing.assembly_s;
@@ -118,6 +119,13 @@ int run_solve(const Args& args) {
         if (auto a = metric(row, "effective_area_um2")) std::printf(" %12.4f", *a);
         if (auto d = metric(row, "mfd_petermann_um")) std::printf(" %10.4f", *d);
         std::printf("\n");
+      }
+    }
+    if (!point.core_pairs.empty()) {
+      std::printf("\n%-4s %-12s %12s %14s %18s\n", "pol", "cores", "distance_um", "kappa_per_m", "coupling_length_m");
+      for (const auto& p : point.core_pairs) {
+        std::printf("%-4c %4d - %-5d %12.4f %14.6g %18.6g\n", p.polarisation, p.core_a, p.core_b,
+                    p.distance_um, p.kappa_per_m, p.coupling_length_m);
       }
     }
     for (const auto& row : point.modes) {

@@ -48,7 +48,18 @@ std::string modes_json(const RunResult& r) {
       for (const auto& [key, value] : row.metrics) j.key(key).value(value);
       j.end_object();
     }
-    j.end_array().end_object();
+    j.end_array();
+    if (!pt.core_pairs.empty()) {
+      j.key("core_coupling").begin_array();
+      for (const auto& c : pt.core_pairs) {
+        j.begin_object().key("polarisation").value(std::string(1, c.polarisation));
+        j.key("core_a").value(c.core_a).key("core_b").value(c.core_b);
+        j.key("distance_um").value(c.distance_um).key("kappa_per_m").value(c.kappa_per_m);
+        j.key("coupling_length_m").value(c.coupling_length_m).end_object();
+      }
+      j.end_array();
+    }
+    j.end_object();
   }
   j.end_array();
   j.key("timing_s").begin_object().key("mesh").value(r.mesh_s).key("assembly").value(r.assembly_s)

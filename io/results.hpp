@@ -19,9 +19,19 @@ struct ModeRow {
   std::vector<std::pair<std::string, double>> metrics;
 };
 
+/// Coupling of one pair of neighbouring cores of a multicore fibre (from the supermodes).
+struct CorePairRow {
+  char polarisation = 'x';
+  int core_a = 0, core_b = 0;  ///< 1-based core numbers in the order the case draws them
+  double distance_um = 0;
+  double kappa_per_m = 0;
+  double coupling_length_m = 0;
+};
+
 struct PointResult {
   double wavelength_um = 0;
   std::vector<ModeRow> modes;  ///< sorted by descending n_eff
+  std::vector<CorePairRow> core_pairs;  ///< multicore cases only
 };
 
 struct RunResult {

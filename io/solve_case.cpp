@@ -8,6 +8,7 @@
 #include "io/progress.hpp"
 #include "mesh/error.hpp"
 #include "solver/bend.hpp"
+#include "solver/coupled_cores.hpp"
 #include "solver/material.hpp"
 #include "solver/mesh_locator.hpp"
 #include "solver/mode_labels.hpp"
@@ -79,6 +80,44 @@ void append_metrics(std::vector<std::pair<std::string, double>>& out, const Mode
                          {"x_fraction", m.x_fraction},
                          {"nonlinear_coefficient_per_w_km", m.nonlinear_coefficient_per_w_km}});
   for (const auto& rp : m.power_fraction) out.push_back({"power_fraction_" + rp.region, rp.fraction});
+}
+
+/// Core centres of a multicore case: the shapes of its one guiding region when it has several
+/// round cores (core-ring, core-grid).
+std::vector<Point2> core_centres(const CaseSpec& c) {
+  if (c.import) return {};
+  std::vector<Point2> centres;
+  for (const auto& r : c.geometry.regions) {
+    if (!r.guiding || r.shapes.size() < 2) continue;
+    for (const auto& s : r.shapes) {
+      if (!std::holds_alternative<Disk>(s.geometry)) return {};
+      centres.push_back(s.placement.offset);
+    }
+    return centres;
+  }
+  return {};
+}
+
+/// Per-core power of every supermode and the coupling of neighbouring cores (supermode
+/// splitting; solver/coupled_cores.hpp).
+void add_core_coupling(const CaseSpec& c, const Mesh& mesh, const ModeSolver& solver,
+                       const std::vector<Mode>& modes, CaseSolution& out) {
+  const std::vector<Point2> centres = core_centres(c);
+  if (centres.size() < 2) return;
+  std::vector<SupermodeCores> per_core;
+  for (std::size_t i = 0; i < modes.size(); ++i) {
+    const ModeFieldEvaluator fields(solver.problem(), solver.dof_map(), modes[i]);
+    per_core.push_back(supermode_cores(fields, mesh, mesh.order, centres));
+    for (std::size_t k = 0; k < centres.size(); ++k) {
+      out.modes[i].metrics.push_back({"core_power_fraction_" + std::to_string(k + 1), per_core.back().power_fraction[k]});
+    }
+  }
+  for (const auto& array : core_array_coupling(modes, per_core, centres)) {
+    for (const auto& p : array.pairs) {
+      out.core_pairs.push_back({array.polarisation, p.core_a + 1, p.core_b + 1, p.distance_um,
+                                p.coupling.kappa_per_m, p.coupling.coupling_length_m});
+    }
+  }
 }
 
 void check_status(EigenStatus status, Progress* progress) {
@@ -162,6 +201,7 @@ CaseSolution solve_lossless(const CaseSpec& c, const Mesh& mesh, Progress* progr
     out.modes.push_back(std::move(sm));
   }
   if (full_section) {
+    add_core_coupling(c, mesh, solver, result.modes, out);
     if (const auto pair = fundamental_polarisation_pair(all_metrics)) {
       const Birefringence b = birefringence(out.modes[pair->x_mode].mode.n_eff,
                                             out.modes[pair->y_mode].mode.n_eff, c.wavelength_um);

@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "io/case_file.hpp"
+#include "io/results.hpp"
 #include "io/vtk_export.hpp"
 #include "mesh/mesh.hpp"
 #include "solver/mode.hpp"
@@ -33,6 +34,7 @@ struct SolvedMode {
 
 struct CaseSolution {
   std::vector<SolvedMode> modes;  ///< descending n_eff
+  std::vector<CorePairRow> core_pairs;  ///< neighbouring core pairs of a multicore case
   SolveTiming timing;
   int n_dofs = 0;
   EigenStatus status = EigenStatus::converged;
