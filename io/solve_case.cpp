@@ -9,6 +9,7 @@
 #include "mesh/error.hpp"
 #include "solver/bend.hpp"
 #include "solver/coupled_cores.hpp"
+#include "solver/leaky_mode_fields.hpp"
 #include "solver/material.hpp"
 #include "solver/mesh_locator.hpp"
 #include "solver/mode_labels.hpp"
@@ -256,6 +257,7 @@ CaseSolution solve_leaky(const CaseSpec& c, const Mesh& mesh, Progress* progress
       sm.metrics.push_back({"bend_loss_db_per_turn", bend_loss_db(lm.loss_db_per_m, c.bend->radius_um, 2.0 * std::numbers::pi)});
     }
     if (std::isfinite(lm.pml_loss_change)) sm.metrics.push_back({"pml_loss_change", lm.pml_loss_change});
+    sm.fields = LeakyModeFieldEvaluator(solver, lm).at_nodes();
     if (lm.loss_unresolved) {
       sm.warnings.push_back("the loss of " + sm.label + " is below what the PML and mesh resolve (it changes with the PML or lies at rounding level); treat it as an upper bound");
     }

@@ -21,6 +21,7 @@ pt::ptree solve_first_mode(const std::string& case_file, const std::string& tag)
   EXPECT_EQ(r.status, 0) << r.err;
   pt::ptree j;
   pt::read_json((out / "modes.json").string(), j);
+  EXPECT_TRUE(fs::exists(out / "mode_01.vtu")) << "leaky modes have their fields written too";
   fs::remove_all(out);
   return j.get_child("points").begin()->second.get_child("modes").begin()->second;
 }
