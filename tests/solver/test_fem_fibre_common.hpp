@@ -9,6 +9,8 @@
 
 #include <Eigen/Dense>
 
+#include <algorithm>
+#include <cmath>
 #include <complex>
 #include <vector>
 
