@@ -542,7 +542,34 @@ CaseSpec read_case(const toml::table& root, const std::filesystem::path& path) {
   c.path = path;
   TableReader top(root, "", "", file, "", false);
   c.title = top.text("title").value_or(path.stem().string());
-  c.wavelength_um = top.required_number("wavelength_um");
+  // wavelength_um: one number, or a list for a sweep; or [sweep] from/to/points.
+  if (const toml::node* wl = root.get("wavelength_um"); wl && wl->is_array()) {
+    auto list = top.number_list("wavelength_um");
+    c.wavelengths_um = *list;
+  } else if (root.contains("wavelength_um")) {
+    c.wavelengths_um = {top.required_number("wavelength_um")};
+  }
+  if (const toml::node* sw = root.get("sweep")) {
+    if (!sw->is_table()) throw InputError(file_line(file, sw->source()) + " 'sweep'", "must be a [sweep] section");
+    if (!c.wavelengths_um.empty()) throw InputError(file_line(file, sw->source()) + " [sweep]", "give either wavelength_um or [sweep], not both");
+    TableReader r(*sw->as_table(), "sweep", "[sweep]", file);
+    const double lo = r.required_number("from_um"), hi = r.required_number("to_um");
+    const long n = r.required_integer("points");
+    if (!(lo < hi)) throw InputError(r.where("to_um"), "must be greater than from_um");
+    if (n < 2 || n > 2000) throw InputError(r.where("points"), "must be between 2 and 2000");
+    r.finish();
+    // Rounded to 1e-9 µm so that 1.35 prints as 1.35, not 1.3499999999999999.
+    for (long i = 0; i < n; ++i) {
+      const double lam = lo + (hi - lo) * static_cast<double>(i) / static_cast<double>(n - 1);
+      c.wavelengths_um.push_back(std::round(lam * 1e9) / 1e9);
+    }
+  }
+  if (c.wavelengths_um.empty()) throw InputError(file + " key 'wavelength_um'", "is required (a wavelength in µm, a list of them, or a [sweep] section)");
+  std::sort(c.wavelengths_um.begin(), c.wavelengths_um.end());
+  if (std::adjacent_find(c.wavelengths_um.begin(), c.wavelengths_um.end()) != c.wavelengths_um.end()) {
+    throw InputError(file + " key 'wavelength_um'", "lists a wavelength twice");
+  }
+  c.wavelength_um = c.wavelengths_um.front();
 
   // Sections are tables; make sure each is one before reading.
   auto section = [&](const char* name) -> const toml::table* {
@@ -551,7 +578,7 @@ CaseSpec read_case(const toml::table& root, const std::filesystem::path& path) {
     if (!n->is_table()) throw InputError(file_line(file, n->source()) + " '" + name + "'", "must be a [" + std::string(name) + "] section");
     return n->as_table();
   };
-  std::set<std::string> sections_seen = {"title", "wavelength_um", "materials", "domain", "region", "mesh", "solve", "import", "bend"};
+  std::set<std::string> sections_seen = {"title", "wavelength_um", "materials", "domain", "region", "mesh", "solve", "import", "bend", "sweep"};
   for (const auto& [key, value] : root) {
     const std::string k(key.str());
     if (!sections_seen.count(k)) {

@@ -54,7 +54,8 @@ struct ImportSpec {
 struct CaseSpec {
   std::filesystem::path path;
   std::string title;
-  double wavelength_um = 0;
+  double wavelength_um = 0;            ///< the (first) wavelength
+  std::vector<double> wavelengths_um;  ///< every wavelength of a sweep, ascending (one for a single solve)
   std::vector<MaterialSpec> materials;
   CrossSection geometry;                 ///< from [domain], [[region]] and [mesh]
   std::optional<ImportSpec> import;      ///< set when the geometry comes from a file

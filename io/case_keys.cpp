@@ -13,8 +13,14 @@ using B = KeyBound;
 constexpr std::array kKeys = {
     // ---- top level ----
     CaseKey{"", "title", K::text, "", "file name", "", B::any, "Free text shown in reports."},
-    CaseKey{"", "wavelength_um", K::number, "µm", "required", "", B::positive,
-            "Vacuum wavelength."},
+    CaseKey{"", "wavelength_um", K::number_list, "µm", "required (or [sweep])", "", B::positive,
+            "Vacuum wavelength, or a list of wavelengths for a sweep (e.g. [1.50, 1.55, 1.60])."},
+    CaseKey{"sweep", "from_um", K::number, "µm", "required", "", B::positive,
+            "First wavelength of an evenly spaced sweep."},
+    CaseKey{"sweep", "to_um", K::number, "µm", "required", "", B::positive,
+            "Last wavelength of the sweep."},
+    CaseKey{"sweep", "points", K::integer, "", "required", "", B::positive,
+            "Number of wavelengths, ends included (at least 3 for dispersion, 4 for its slope)."},
 
     // ---- materials: [materials] NAME = index, or NAME = { ... } (docs/materials.md) ----
     CaseKey{"materials.NAME", "index", K::number, "", "one model key is required", "", B::positive,

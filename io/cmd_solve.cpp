@@ -7,6 +7,7 @@
 #include <cmath>
 #include <cstdio>
 #include <filesystem>
+#include <map>
 #include <optional>
 
 #include "io/case_file.hpp"
@@ -16,6 +17,7 @@
 #include "io/progress.hpp"
 #include "io/results.hpp"
 #include "io/solve_case.hpp"
+#include "io/sweep.hpp"
 #include "io/staged_output.hpp"
 #include "io/vtk_export.hpp"
 #include "mesh/error.hpp"
@@ -47,10 +49,13 @@ int run_solve(const Args& args) {
   progress.note("meshed: " + std::to_string(mesh.n_triangles()) + " triangles, order " +
                 std::to_string(mesh.order));
 
-  // 2-4. setup_dofs, assemble, solve
-  const CaseSolution sol = solve_case(c, mesh, &progress);
-  progress.note("solved: " + std::to_string(sol.n_dofs) + " unknowns, " +
-                std::to_string(sol.modes.size()) + " modes");
+  // 2-4. setup_dofs, assemble, solve (once per wavelength, on one mesh and one solver)
+  std::vector<CaseSolution> sols = solve_sweep(c, mesh, &progress);
+  const bool sweep = sols.size() > 1;
+  const auto tracks = track_modes(sols);
+  const auto zeros = sweep ? add_dispersion(sols, tracks) : std::vector<ZeroDispersion>{};
+  progress.note("solved: " + std::to_string(sols.front().n_dofs) + " unknowns, " +
+                std::to_string(sols.size()) + " wavelength(s)");
 
   // 5. postprocess and 6. write_results, all into the staging folder first.
   StagedOutput out(out_dir);
@@ -58,41 +63,69 @@ int run_solve(const Args& args) {
   run.case_path = case_path.string();
   run.n_triangles = mesh.n_triangles();
   run.order = mesh.order;
-  run.n_dofs = sol.n_dofs;
-  PointResult point;
-  point.wavelength_um = c.wavelength_um;
+  run.n_dofs = sols.front().n_dofs;
   std::vector<PvdEntry> pvd;
-  for (std::size_t m = 0; m < sol.modes.size(); ++m) {
-    progress.update("writing fields", static_cast<double>(m) / sol.modes.size());
-    const auto& mode = sol.modes[m];
-    ModeRow row;
-    row.n_eff = mode.mode.n_eff;
-    row.n_eff_imag = mode.n_eff_imag;
-    row.loss_db_per_m = mode.loss_db_per_m;
-    row.label = mode.label;
-    row.residual = mode.mode.residual;
-    row.metrics = mode.metrics;
-    point.modes.push_back(row);
-    for (const auto& w : mode.warnings) progress.note("warning: " + w);
-    if (!mode.fields) continue;
-    char name[32];
-    std::snprintf(name, sizeof name, "mode_%02zu.vtu", m + 1);
-    write_vtu(mesh, mode_field_arrays(c, mesh, mode), out.staging() / name);
-    pvd.push_back({static_cast<double>(m + 1), name});
+  std::map<int, std::vector<PvdEntry>> track_pvd;
+  for (std::size_t p = 0; p < sols.size(); ++p) {
+    const CaseSolution& sol = sols[p];
+    PointResult point;
+    point.wavelength_um = sol.wavelength_um;
+    for (std::size_t m = 0; m < sol.modes.size(); ++m) {
+      progress.update("writing fields", static_cast<double>(p * sol.modes.size() + m) / (sols.size() * sol.modes.size()));
+      const auto& mode = sol.modes[m];
+      ModeRow row;
+      row.n_eff = mode.mode.n_eff;
+      row.n_eff_imag = mode.n_eff_imag;
+      row.loss_db_per_m = mode.loss_db_per_m;
+      row.label = mode.label;
+      row.residual = mode.mode.residual;
+      row.metrics = mode.metrics;
+      point.modes.push_back(row);
+      for (const auto& w : mode.warnings) progress.note("warning: " + w);
+      if (!mode.fields) continue;
+      char name[48];
+      if (sweep) std::snprintf(name, sizeof name, "p%03zu_mode_%02zu.vtu", p + 1, m + 1);
+      else std::snprintf(name, sizeof name, "mode_%02zu.vtu", m + 1);
+      CaseSpec cp = c;
+      cp.wavelength_um = sol.wavelength_um;
+      write_vtu(mesh, mode_field_arrays(cp, mesh, mode), out.staging() / name);
+      if (!sweep) pvd.push_back({static_cast<double>(m + 1), name});
+      track_pvd[tracks[p][m]].push_back({sol.wavelength_um, name});
+    }
+    point.core_pairs = sol.core_pairs;
+    run.points.push_back(point);
+    run.assembly_s += sol.timing.assembly_s;
+    run.factorization_s += sol.timing.factorization_s;
+    run.eigensolve_s += sol.timing.eigensolve_s;
   }
-  write_pvd(pvd, out.staging() / "modes.pvd");
-  point.core_pairs = sol.core_pairs;
-  run.points.push_back(point);
+  if (sweep) {
+    // One collection per tracked mode, the wavelength as the series value.
+    for (const auto& [t, entries] : track_pvd) {
+      char name[32];
+      std::snprintf(name, sizeof name, "track_%02d.pvd", t);
+      write_pvd(entries, out.staging() / name);
+    }
+    write_text_file(out.staging() / "sweep.csv", sweep_csv(sols, tracks));
+  } else {
+    write_pvd(pvd, out.staging() / "modes.pvd");
+  }
+  for (const auto& z : zeros) run.zero_dispersion.push_back({z.track, z.wavelength_um, z.slope_ps_per_nm2_km});
   run.mesh_s = report.seconds;
-  run.assembly_s = sol.timing.assembly_s;
-  run.factorization_s = sol.timing.factorization_s;
-  run.eigensolve_s = sol.timing.eigensolve_s;
   run.total_s = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
   write_text_file(out.staging() / "modes.json", modes_json(run));
   write_text_file(out.staging() / "modes.csv", modes_csv(run));
   out.commit();
   progress.note("wrote " + out_dir.string());
 
+  if (!cl.has("quiet") && sweep) {
+    std::printf("%s", sweep_csv(sols, tracks).c_str());
+    for (const auto& z : zeros) {
+      std::printf("\ntrack %d: zero dispersion at %.5f um (slope %.4g ps/(nm^2 km))", z.track, z.wavelength_um, z.slope_ps_per_nm2_km);
+    }
+    if (!zeros.empty()) std::printf("\n");
+    return 0;
+  }
+  const PointResult& point = run.points.front();
   if (!cl.has("quiet")) {
     auto metric = [](const ModeRow& row, const std::string& key) -> std::optional<double> {
       for (const auto& [k, v] : row.metrics) {

@@ -62,6 +62,14 @@ std::string modes_json(const RunResult& r) {
     j.end_object();
   }
   j.end_array();
+  if (!r.zero_dispersion.empty()) {
+    j.key("zero_dispersion").begin_array();
+    for (const auto& z : r.zero_dispersion) {
+      j.begin_object().key("track").value(z.track).key("wavelength_um").value(z.wavelength_um)
+          .key("slope_ps_per_nm2_km").value(z.slope_ps_per_nm2_km).end_object();
+    }
+    j.end_array();
+  }
   j.key("timing_s").begin_object().key("mesh").value(r.mesh_s).key("assembly").value(r.assembly_s)
       .key("factorization").value(r.factorization_s).key("eigensolve").value(r.eigensolve_s)
       .key("total").value(r.total_s).end_object();

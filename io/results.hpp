@@ -40,6 +40,11 @@ struct RunResult {
   int order = 1;
   int n_dofs = 0;
   std::vector<PointResult> points;
+  struct ZeroDispersionRow {
+    int track = 0;
+    double wavelength_um = 0, slope_ps_per_nm2_km = 0;
+  };
+  std::vector<ZeroDispersionRow> zero_dispersion;  ///< sweeps: where D of a tracked mode crosses zero
   double mesh_s = 0, assembly_s = 0, factorization_s = 0, eigensolve_s = 0, total_s = 0;
 };
 

@@ -9,6 +9,7 @@
 #include "mesh/error.hpp"
 #include "solver/bend.hpp"
 #include "solver/coupled_cores.hpp"
+#include "solver/group_index.hpp"
 #include "solver/leaky_mode_fields.hpp"
 #include "solver/material.hpp"
 #include "solver/mesh_locator.hpp"
@@ -139,13 +140,9 @@ void check_status(EigenStatus status, Progress* progress) {
 
 }  // namespace
 
-LosslessSolve run_lossless_solver(const CaseSpec& c, const Mesh& mesh, Progress* progress) {
-  LosslessSolve run;
-  run.solver = std::make_unique<ModeSolver>(mode_problem(c, mesh));
-  ModeSolver& solver = *run.solver;
-  if (progress) {
-    solver.set_progress([progress](std::string_view stage, double f) { progress->update(stage, f); });
-  }
+namespace {
+
+SolveResult solve_lossless_point(const CaseSpec& c, ModeSolver& solver, Progress* progress) {
   SolveRequest request;
   request.n_modes = c.solve.n_modes;
   request.n_target = c.solve.target_index;
@@ -155,21 +152,50 @@ LosslessSolve run_lossless_solver(const CaseSpec& c, const Mesh& mesh, Progress*
     request.n_lower_bound = c.find_material(c.geometry.background_material)->max_index(c.wavelength_um);
   }
   check_target(c, solver.max_material_index());
-  run.result = solver.solve(request);
-  check_status(run.result.status, progress);
-  if (run.result.modes.empty()) {
-    throw ComputationError("no guided mode found near the target index; check the materials (is the core index above the cladding?) or set [solve] target_index");
+  SolveResult result = solver.solve(request);
+  check_status(result.status, progress);
+  if (result.modes.empty()) {
+    throw ComputationError("no guided mode found near the target index at " + std::to_string(c.wavelength_um) +
+                           " um; check the materials (is the core index above the cladding?) or set [solve] target_index");
   }
+  return result;
+}
+
+/// dε/dk0 of every region's diagonal permittivity at the case's wavelength (material dispersion).
+std::vector<std::array<double, 3>> permittivity_slopes(const CaseSpec& c, const Mesh& mesh) {
+  std::vector<std::array<double, 3>> out;
+  for (const auto& region : mesh.regions) {
+    const MaterialSpec& m = region_material(c, region);
+    std::array<double, 3> d{};
+    for (int k = 0; k < 3; ++k) {
+      const DispersionModel& model = m.models.at(m.kind == MaterialSpec::Kind::diagonal ? k : 0);
+      const IndexDerivatives nd = model.derivatives(c.wavelength_um);
+      d[k] = permittivity_derivative_dk0(nd.n, nd.dn_dlambda, c.wavelength_um);
+    }
+    out.push_back(d);
+  }
+  return out;
+}
+
+}  // namespace
+
+LosslessSolve run_lossless_solver(const CaseSpec& c, const Mesh& mesh, Progress* progress) {
+  LosslessSolve run;
+  run.solver = std::make_unique<ModeSolver>(mode_problem(c, mesh));
+  if (progress) {
+    run.solver->set_progress([progress](std::string_view stage, double f) { progress->update(stage, f); });
+  }
+  run.result = solve_lossless_point(c, *run.solver, progress);
   return run;
 }
 
 namespace {
 
-CaseSolution solve_lossless(const CaseSpec& c, const Mesh& mesh, Progress* progress) {
-  const LosslessSolve run = run_lossless_solver(c, mesh, progress);
-  const ModeSolver& solver = *run.solver;
-  const SolveResult& result = run.result;
+CaseSolution postprocess_lossless(const CaseSpec& c, const Mesh& mesh, const ModeSolver& solver,
+                                  const SolveResult& result, Progress* progress) {
   CaseSolution out;
+  out.wavelength_um = c.wavelength_um;
+  const auto deps_dk0 = permittivity_slopes(c, mesh);
   out.timing = result.timing;
   out.n_dofs = result.n_dofs;
   out.status = result.status;
@@ -193,6 +219,7 @@ CaseSolution solve_lossless(const CaseSpec& c, const Mesh& mesh, Progress* progr
     const ModeFieldEvaluator fields(solver.problem(), solver.dof_map(), sm.mode);
     sm.fields = fields.at_nodes();
     sm.metrics.push_back({"beta_per_um", sm.mode.beta});
+    sm.metrics.push_back({"n_group", group_index(solver, sm.mode, deps_dk0)});
     if (full_section) {
       sm.label = label_mode(fields, locator, label_options).label;
       const ModeMetrics mm = mode_metrics(fields, solver.problem(), solver.dof_map(), sm.mode, metric_options);
@@ -218,9 +245,8 @@ CaseSolution solve_lossless(const CaseSpec& c, const Mesh& mesh, Progress* progr
   return out;
 }
 
-CaseSolution solve_leaky(const CaseSpec& c, const Mesh& mesh, Progress* progress) {
+CaseSolution solve_leaky_point(const CaseSpec& c, ComplexModeSolver& solver, Progress* progress) {
   if (progress) progress->update("complex solve");
-  ComplexModeSolver solver(leaky_mode_problem(c, mesh));
   check_target(c, solver.max_physical_index());
   if (c.solve.all_guided) {
     throw InputError(c.path.string() + " [solve] key 'all_guided'",
@@ -237,6 +263,7 @@ CaseSolution solve_leaky(const CaseSpec& c, const Mesh& mesh, Progress* progress
                            " solutions living in the PML were dropped); set [solve] target_index near the expected effective index");
   }
   CaseSolution out;
+  out.wavelength_um = c.wavelength_um;
   out.timing = result.timing;
   out.n_dofs = result.n_dofs;
   out.status = result.status;
@@ -339,8 +366,48 @@ LeakyModeProblem leaky_mode_problem(const CaseSpec& c, const Mesh& mesh) {
   return p;
 }
 
+std::vector<CaseSolution> solve_sweep(const CaseSpec& c, const Mesh& mesh, Progress* progress) {
+  std::vector<CaseSolution> points;
+  const bool complex_path = needs_complex_solver(c, mesh);
+  // One solver for the whole sweep: the mesh, the DOF map and the sparsity analysis are made
+  // once; each point reassembles and refactorises on the same pattern.
+  std::unique_ptr<ModeSolver> real;
+  std::unique_ptr<ComplexModeSolver> leaky;
+  for (std::size_t i = 0; i < c.wavelengths_um.size(); ++i) {
+    CaseSpec ci = c;
+    ci.wavelength_um = c.wavelengths_um[i];
+    if (progress && c.wavelengths_um.size() > 1) {
+      progress->note("wavelength " + std::to_string(i + 1) + " of " + std::to_string(c.wavelengths_um.size()) +
+                     ": " + std::to_string(ci.wavelength_um) + " um");
+    }
+    if (complex_path) {
+      const LeakyModeProblem p = leaky_mode_problem(ci, mesh);
+      if (!leaky) leaky = std::make_unique<ComplexModeSolver>(p);
+      else leaky->set_wavelength(ci.wavelength_um, p.region_materials);
+      points.push_back(solve_leaky_point(ci, *leaky, progress));
+    } else {
+      const ModeProblem p = mode_problem(ci, mesh);
+      if (!real) {
+        real = std::make_unique<ModeSolver>(p);
+        if (progress) real->set_progress([progress](std::string_view stage, double f) { progress->update(stage, f); });
+      } else {
+        real->set_wavelength(ci.wavelength_um, p.region_materials);
+      }
+      const SolveResult r = solve_lossless_point(ci, *real, progress);
+      points.push_back(postprocess_lossless(ci, mesh, *real, r, progress));
+      // The tt block of B (∫ μ⁻¹ N_i·N_j) does not depend on the wavelength: it measures the
+      // overlap of transverse fields between points for mode tracking.
+      const int ne = real->dof_map().n_edge_dofs();
+      points.back().transverse_gram = real->matrices().b.topLeftCorner(ne, ne);
+    }
+  }
+  return points;
+}
+
 CaseSolution solve_case(const CaseSpec& c, const Mesh& mesh, Progress* progress) {
-  return needs_complex_solver(c, mesh) ? solve_leaky(c, mesh, progress) : solve_lossless(c, mesh, progress);
+  CaseSpec single = c;
+  single.wavelengths_um = {c.wavelength_um};
+  return std::move(solve_sweep(single, mesh, progress).front());
 }
 
 std::vector<VtkArray> mode_field_arrays(const CaseSpec& c, const Mesh& mesh, const SolvedMode& m) {

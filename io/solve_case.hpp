@@ -3,6 +3,7 @@
 // Shared by `solve` and `verify`.
 #pragma once
 
+#include <Eigen/SparseCore>
 #include <memory>
 #include <optional>
 #include <string>
@@ -33,7 +34,10 @@ struct SolvedMode {
 };
 
 struct CaseSolution {
+  double wavelength_um = 0;
   std::vector<SolvedMode> modes;  ///< descending n_eff
+  /// Lossless points: the wavelength-independent transverse block of B, for mode tracking.
+  Eigen::SparseMatrix<double> transverse_gram;
   std::vector<CorePairRow> core_pairs;  ///< neighbouring core pairs of a multicore case
   SolveTiming timing;
   int n_dofs = 0;
@@ -59,6 +63,9 @@ LosslessSolve run_lossless_solver(const CaseSpec& c, const Mesh& mesh, Progress*
 
 /// Solves the case; throws ComputationError (exit 1) when no mode converges or none is found.
 CaseSolution solve_case(const CaseSpec& c, const Mesh& mesh, Progress* progress = nullptr);
+
+/// Solves the case at every wavelength of c.wavelengths_um on one mesh and one solver.
+std::vector<CaseSolution> solve_sweep(const CaseSpec& c, const Mesh& mesh, Progress* progress = nullptr);
 
 /// Point data E_re, E_im, H_re, H_im (3 components), E_abs2, S_z and cell data index.
 std::vector<VtkArray> mode_field_arrays(const CaseSpec& c, const Mesh& mesh, const SolvedMode& m);
