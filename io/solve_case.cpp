@@ -135,6 +135,8 @@ void check_status(EigenStatus status, Progress* progress) {
       throw ComputationError("the eigensolver did not converge; try a target_index nearer the expected modes or fewer modes");
     case EigenStatus::residual_too_large:
       throw ComputationError("an eigenpair failed the residual check; refine the mesh or change target_index");
+    case EigenStatus::no_modes_found:
+      break;  // reported below with the case's own advice
   }
 }
 
