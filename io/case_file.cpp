@@ -129,12 +129,16 @@ public:
     return v;
   }
 
+  /// A list of numbers: exactly `count` of them, or any non-empty list when `count` is 0.
   std::optional<std::vector<double>> numbers(std::string_view key, std::size_t count) {
     const CaseKey& k = spec(key);
     const toml::node* n = node(key);
     if (!n) return std::nullopt;
     const toml::array* arr = n->as_array();
-    if (!arr || arr->size() != count) {
+    if (count == 0 && (!arr || arr->empty())) {
+      throw InputError(where(key), "must be a non-empty list of numbers, e.g. [0.696, 0.408]");
+    }
+    if (count > 0 && (!arr || arr->size() != count)) {
       throw InputError(where(key), "must be a list of " + std::to_string(count) + " numbers, e.g. " +
                                        (count == 2 ? "[1.0, 2.0]" : "[2.1, 2.1, 2.2]"));
     }
@@ -148,21 +152,7 @@ public:
     return out;
   }
 
-  std::optional<std::vector<double>> number_list(std::string_view key) {
-    const CaseKey& k = spec(key);
-    const toml::node* n = node(key);
-    if (!n) return std::nullopt;
-    const toml::array* arr = n->as_array();
-    if (!arr || arr->empty()) throw InputError(where(key), "must be a non-empty list of numbers, e.g. [0.696, 0.408]");
-    std::vector<double> out;
-    for (const auto& e : *arr) {
-      auto v = e.value<double>();
-      if (!v || e.is_boolean()) throw InputError(where(key), "every entry must be a number");
-      check_bound(k, *v, key);
-      out.push_back(*v);
-    }
-    return out;
-  }
+  std::optional<std::vector<double>> number_list(std::string_view key) { return numbers(key, 0); }
 
   /// A number (returned as one value) or a list of three.
   std::optional<std::vector<double>> number_or_triple(std::string_view key) {
