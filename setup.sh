@@ -14,7 +14,7 @@ esac
 
 packages=(build-essential cmake pkg-config git
           libeigen3-dev libspectra-dev libgmsh-dev libvtk9-dev libsuitesparse-dev
-          libarpack2-dev libgtest-dev libtomlplusplus-dev libboost-dev)
+          libarpack2-dev libgtest-dev libtomlplusplus-dev libboost-dev chromium)
 
 missing=()
 for p in "${packages[@]}"; do
