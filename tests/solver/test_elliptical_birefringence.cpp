@@ -18,7 +18,7 @@
 // scalar mode of the deformed core to first order in ε; no published table was found stored.
 //
 // FEM: a quarter of the cross-section. x-polarised fundamental: magnetic wall on y = 0, electric
-// on x = 0; y-polarised: the reverse. The outer wall is electric (a ≥ 9ρ away, field ~e^{−Wr/ρ}).
+// on x = 0; y-polarised: the reverse. The outer wall is electric, at 9ρ (field ~e^{−Wr/ρ}).
 #include <gtest/gtest.h>
 
 #include <cmath>
