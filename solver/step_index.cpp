@@ -565,4 +565,105 @@ FieldPoint StepIndexField::at_polar(double r_um, double phi_rad, Side side) cons
   return out;
 }
 
+// ---- dispersion -------------------------------------------------------------------------------
+//
+// β(k0) of one mode is smooth in k0 while the mode stays guided; its roots are accurate to ~1e-15
+// (relative), so central differences with a modest step and one Richardson extrapolation give
+// n_g and D far below any FEM error (docs/step-index.md "Dispersion"):
+//   D1(h) = [β(k0 + h) − β(k0 − h)] / 2h         = β'  + β⁽³⁾ h²/6  + O(h⁴),
+//   D2(h) = [β(k0 + h) − 2β(k0) + β(k0 − h)] / h² = β'' + β⁽⁴⁾ h²/12 + O(h⁴),
+//   R = [4 D(h) − D(2h)] / 3 = exact + O(h⁴)   (L. F. Richardson, Phil. Trans. A 226, 299 (1927)).
+// n_g = β'(k0); D = (1/c) dn_g/dλ with dk0/dλ = −k0/λ, i.e. dn_g/dλ = −(k0²/2π) β''.
+
+IndexModel index_model(const DispersionModel& model) {
+  return [model](double wavelength_um) { return model.derivatives(wavelength_um); };
+}
+
+IndexModel index_model(double wavelength_um, const IndexDerivatives& d) {
+  return [wavelength_um, d](double lam) {
+    const double x = lam - wavelength_um;
+    return IndexDerivatives{d.n + x * d.dn_dlambda + 0.5 * x * x * d.d2n_dlambda2,
+                            d.dn_dlambda + x * d.d2n_dlambda2, d.d2n_dlambda2};
+  };
+}
+
+IndexModel index_model(double n) {
+  return [n](double) { return IndexDerivatives{n, 0.0, 0.0}; };
+}
+
+StepIndexFibre DispersiveStepIndexFibre::at(double wavelength_um) const {
+  assert(n_core && n_clad);
+  return StepIndexFibre{n_core(wavelength_um).n, n_clad(wavelength_um).n, radius_um, wavelength_um};
+}
+
+std::optional<StepIndexModeDispersion> step_index_dispersion(const DispersiveStepIndexFibre& fibre,
+                                                             double wavelength_um, ModeFamily family,
+                                                             int nu, int m, double relative_step) {
+  if (!(relative_step > 0.0 && relative_step < 0.05)) {
+    throw InputError("step_index_dispersion", "relative_step must lie in (0, 0.05)");
+  }
+  const double k0 = 2.0 * kPi / wavelength_um, h = relative_step * k0;
+  const auto centre = solve_mode(fibre.at(wavelength_um), family, nu, m);
+  if (!centre) return std::nullopt;
+  double beta[5];  // β(k0 + j h), j = −2..2
+  beta[2] = centre->beta;
+  for (int j : {-2, -1, 1, 2}) {
+    const auto mode = solve_mode(fibre.at(2.0 * kPi / (k0 + j * h)), family, nu, m);
+    if (!mode) return std::nullopt;
+    beta[j + 2] = mode->beta;
+  }
+  const double d1_h = (beta[3] - beta[1]) / (2.0 * h), d1_2h = (beta[4] - beta[0]) / (4.0 * h);
+  const double d2_h = (beta[3] - 2.0 * beta[2] + beta[1]) / (h * h);
+  const double d2_2h = (beta[4] - 2.0 * beta[2] + beta[0]) / (4.0 * h * h);
+  const double ng = (4.0 * d1_h - d1_2h) / 3.0;
+  const double b2 = (4.0 * d2_h - d2_2h) / 3.0;
+  // (1/c) dn_g/dλ with dn_g/dλ in 1/µm → ps/(nm·km): ×1e12/c (as dispersion_ps_per_nm_km()).
+  const double scale = -(k0 * k0) / (2.0 * kPi) * 1e12 / speed_of_light_m_per_s;
+  StepIndexModeDispersion out;
+  out.mode = *centre;
+  out.n_group = ng;
+  out.dispersion_ps_per_nm_km = scale * b2;
+  out.n_group_error = std::fabs(ng - d1_h);
+  out.dispersion_error_ps_per_nm_km = std::fabs(scale * (b2 - d2_h));
+  return out;
+}
+
+std::optional<double> step_index_group_index_implicit(const DispersiveStepIndexFibre& fibre,
+                                                      double wavelength_um, ModeFamily family, int nu,
+                                                      int m) {
+  const StepIndexFibre f0 = fibre.at(wavelength_um);
+  const auto mode = solve_mode(f0, family, nu, m);
+  if (!mode) return std::nullopt;
+  const double k0 = f0.k0_per_um(), u = mode->u, v = f0.v_number(), a = fibre.radius_um;
+  // 5-point central differences (error O(δ⁴)); the steps stay inside the branch (U < V).
+  auto five_point = [](auto&& g, double x, double d) {
+    return (-g(x + 2 * d) + 8 * g(x + d) - 8 * g(x - d) + g(x - 2 * d)) / (12 * d);
+  };
+  const double du = 1e-4 * std::min(u, v - u);
+  const double h_u =
+      five_point([&](double x) { return characteristic_function(f0, family, nu, x); }, u, du);
+  const double dk = 1e-4 * k0 * std::min(1.0, (v - u) / v);
+  const double h_k = five_point(
+      [&](double kk) { return characteristic_function(fibre.at(2.0 * kPi / kk), family, nu, u); }, k0, dk);
+  const double du_dk0 = -h_k / h_u;
+  const IndexDerivatives n1 = fibre.n_core(wavelength_um);
+  const double n1_group = n1.n - wavelength_um * n1.dn_dlambda;
+  return (k0 * n1.n * n1_group - u * du_dk0 / (a * a)) / mode->beta;
+}
+
+double te_cutoff_v_with_electric_wall(int m, double core_radius_over_wall_radius) {
+  if (m < 1 || !(core_radius_over_wall_radius >= 0.0 && core_radius_over_wall_radius < 1.0)) {
+    throw InputError("te_cutoff_v_with_electric_wall", "needs m >= 1 and 0 <= a/R < 1");
+  }
+  const double eps = core_radius_over_wall_radius * core_radius_over_wall_radius;
+  const double rhs = -2.0 * eps / (1.0 - eps);
+  // g(U) = U J0/J1 − rhs falls from +inf to −inf between consecutive zeros of J1 (the TE branch
+  // structure of "Root bracketing" in docs/step-index.md), so the root next to j_{0,m} is the one
+  // in (j_{1,m−1}, j_{1,m}), with j_{1,0} = 0.
+  const auto j1 = bessel::j_zeros(1, 4.0 * (m + 1));
+  const double lo = (m == 1) ? 0.0 : j1.at(m - 2), hi = j1.at(m - 1);
+  auto g = [&](double x) { return x * bessel::j_ratio(1, x) - rhs; };
+  return brent_root(g, lo, hi, kInf, -kInf);
+}
+
 }  // namespace cladwise

@@ -13,16 +13,20 @@
 // azimuthal pairs, i.e. two polarisations) with the same β; it is ONE entry here, with
 // degeneracy() == 2. TE0m and TM0m are single (degeneracy 1). LP0m has 2, LPlm (l >= 1) has 4.
 //
-// Later work (group index, dispersion): β(k0) of one mode can be tracked by (family, nu, m) via
-// solve_mode(); dβ/dk0 follows from implicit differentiation of characteristic_function() in U
-// and V, or from differences of solve_mode() in wavelength.
+// Dispersion (docs/step-index.md, "Dispersion"): group index n_g = dβ/dk0 and chromatic
+// dispersion D = (1/c) dn_g/dλ of any exact vector or LP mode of a fibre whose core and cladding
+// indices depend on wavelength, from Richardson-extrapolated central differences of the exact
+// β(k0); cross-checked by implicit differentiation of the characteristic equation.
 #pragma once
 
 #include <Eigen/Core>
 #include <complex>
+#include <functional>
 #include <optional>
 #include <string>
 #include <vector>
+
+#include "solver/dispersion_model.hpp"
 
 namespace cladwise {
 
@@ -137,6 +141,63 @@ private:
   double j_nu_u_ = 0.0;     ///< J_ν(U)
   double log_k_nu_w_ = 0.0; ///< log K_ν(W)
 };
+
+// ---- dispersion: a fibre of dispersive glasses -------------------------------------------------
+
+/// Index of one medium against vacuum wavelength (µm): n, dn/dλ and d²n/dλ² there.
+using IndexModel = std::function<IndexDerivatives(double wavelength_um)>;
+
+/// The index of a dispersion model (its validity range applies: outside it, InputError).
+IndexModel index_model(const DispersionModel& model);
+/// A local quadratic model n(λ) = n + n'(λ − λ0) + ½ n''(λ − λ0)² from the index and its two
+/// derivatives at λ0: exact for n_g and D at λ0, which depend on n, n' and n'' only.
+IndexModel index_model(double wavelength_um, const IndexDerivatives& at_wavelength);
+/// A constant index (dn/dλ = 0).
+IndexModel index_model(double n);
+
+/// A round step-index fibre whose core and cladding indices depend on wavelength.
+struct DispersiveStepIndexFibre {
+  IndexModel n_core;
+  IndexModel n_clad;
+  double radius_um = 0.0;
+  /// The fibre at one vacuum wavelength (indices evaluated there).
+  StepIndexFibre at(double wavelength_um) const;
+};
+
+/// Group index and chromatic dispersion of one mode at one wavelength.
+struct StepIndexModeDispersion {
+  StepIndexMode mode;                   ///< the mode at the wavelength
+  double n_group = 0.0;                 ///< n_g = dβ/dk0 (material dispersion included)
+  double dispersion_ps_per_nm_km = 0.0; ///< D = (1/c) dn_g/dλ = −(k0²/2πc) d²β/dk0²
+  /// |Richardson value − plain central difference at the finer step|: a bound on the error of
+  /// the plain difference, hence (the Richardson error being far smaller) a conservative bound.
+  double n_group_error = 0.0;
+  double dispersion_error_ps_per_nm_km = 0.0;
+};
+
+/// n_g and D of mode (family, nu, m) at `wavelength_um` by central differences of the exact β(k0)
+/// at k0 ± h and k0 ± 2h, h = relative_step·k0, combined by one Richardson step (error O(h⁴);
+/// docs/step-index.md "Dispersion"). Nothing if the mode is not guided at every stencil point.
+/// With root accuracy ~1e-15 and h = 1e-3 k0: n_g to ~1e-11, D to ~1e-5 ps/(nm·km).
+std::optional<StepIndexModeDispersion> step_index_dispersion(const DispersiveStepIndexFibre& fibre,
+                                                             double wavelength_um, ModeFamily family,
+                                                             int nu, int m,
+                                                             double relative_step = 1e-3);
+
+/// n_g of mode (family, nu, m) by implicit differentiation of its characteristic equation
+/// h(U; k0) = 0 (characteristic_function) at the root: dU/dk0 = −(∂h/∂k0)_U / (∂h/∂U)_k0, the
+/// partial derivatives by 5-point differences of h, and from β² = k0² n1² − U²/a²,
+///   n_g = [k0 n1 (n1 − λ dn1/dλ) − U (dU/dk0)/a²] / β.
+/// Independent of the root finding at other wavelengths; used to check step_index_dispersion().
+std::optional<double> step_index_group_index_implicit(const DispersiveStepIndexFibre& fibre,
+                                                      double wavelength_um, ModeFamily family, int nu,
+                                                      int m);
+
+/// Cutoff of TE0m in a fibre whose cladding ends at an electric wall (tangential E = 0) of
+/// radius R: the V at which n_eff = n_clad, root of U J0(U)/J1(U) = −2ε/(1 − ε), ε = (a/R)²,
+/// next to j_{0,m} (derivation in docs/step-index.md "Cutoff in a walled cladding"). As R → ∞ it
+/// tends to j_{0,m}; V_c ≈ j_{0,m} (1 + 2ε/j_{0,m}²) for small ε.
+double te_cutoff_v_with_electric_wall(int m, double core_radius_over_wall_radius);
 
 /// Impedance of free space Z0 = μ0 c (Ω), CODATA 2018.
 inline constexpr double kFreeSpaceImpedance = 376.730313668;
