@@ -14,7 +14,9 @@
 #include "io/cli_options.hpp"
 #include "io/commands.hpp"
 #include "io/mesh_case.hpp"
+#include "io/mode_pictures.hpp"
 #include "io/progress.hpp"
+#include "io/report_html.hpp"
 #include "io/results.hpp"
 #include "io/solve_case.hpp"
 #include "io/sweep.hpp"
@@ -66,6 +68,9 @@ int run_solve(const Args& args) {
   run.n_dofs = sols.front().n_dofs;
   std::vector<PvdEntry> pvd;
   std::map<int, std::vector<PvdEntry>> track_pvd;
+  ReportInputs report_inputs;
+  report_inputs.title = c.title;
+  report_inputs.pictures.resize(sols.size());
   for (std::size_t p = 0; p < sols.size(); ++p) {
     const CaseSolution& sol = sols[p];
     PointResult point;
@@ -81,14 +86,28 @@ int run_solve(const Args& args) {
       row.residual = mode.mode.residual;
       row.metrics = mode.metrics;
       point.modes.push_back(row);
-      for (const auto& w : mode.warnings) progress.note("warning: " + w);
+      for (const auto& w : mode.warnings) {
+        progress.note("warning: " + w);
+        report_inputs.warnings.push_back(w);
+      }
       if (!mode.fields) continue;
       char name[48];
       if (sweep) std::snprintf(name, sizeof name, "p%03zu_mode_%02zu.vtu", p + 1, m + 1);
       else std::snprintf(name, sizeof name, "mode_%02zu.vtu", m + 1);
       CaseSpec cp = c;
       cp.wavelength_um = sol.wavelength_um;
-      write_vtu(mesh, mode_field_arrays(cp, mesh, mode), out.staging() / name);
+      const auto arrays = mode_field_arrays(cp, mesh, mode);
+      write_vtu(mesh, arrays, out.staging() / name);
+      // Pictures of every mode of a single solve, and of the first point of a sweep.
+      if (p == 0) {
+        report_inputs.pictures[p].resize(sol.modes.size());
+        report_inputs.pictures[p][m] =
+            write_mode_pictures(mesh, *mode.fields, {}, out.staging(), fs::path(name).stem().string());
+        if (report_inputs.mesh_picture.empty()) {
+          write_index_png(mesh, arrays.back().values, {}, out.staging() / "mesh_index.png");
+          report_inputs.mesh_picture = "mesh_index.png";
+        }
+      }
       if (!sweep) pvd.push_back({static_cast<double>(m + 1), name});
       track_pvd[tracks[p][m]].push_back({sol.wavelength_um, name});
     }
@@ -114,6 +133,7 @@ int run_solve(const Args& args) {
   run.total_s = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
   write_text_file(out.staging() / "modes.json", modes_json(run));
   write_text_file(out.staging() / "modes.csv", modes_csv(run));
+  write_report_html(run, report_inputs, out.staging() / "report.html");
   out.commit();
   progress.note("wrote " + out_dir.string());
 

@@ -119,7 +119,9 @@ TEST(SolveCommand, WritesTheResultsContractForTheEllipticalCoreCase) {
   ASSERT_EQ(again.status, 0) << again.err;
   int entries = 0;
   for ([[maybe_unused]] const auto& e : fs::directory_iterator(out)) ++entries;
-  EXPECT_EQ(entries, 5);  // modes.json, modes.csv, modes.pvd, mode_01.vtu, mode_02.vtu
+  // modes.json, modes.csv, modes.pvd, report.html, mesh_index.png, and per mode a .vtu with an
+  // intensity and a polarisation picture.
+  EXPECT_EQ(entries, 11);
   for (const auto& e : fs::directory_iterator(out.parent_path())) {
     EXPECT_EQ(e.path().filename().string().find(out.filename().string() + ".partial"), std::string::npos);
   }
