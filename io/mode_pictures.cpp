@@ -164,7 +164,7 @@ const std::map<char, std::array<unsigned char, 7>>& glyphs() {
       {'8', {0x0E, 0x11, 0x11, 0x0E, 0x11, 0x11, 0x0E}}, {'9', {0x0E, 0x11, 0x11, 0x0F, 0x01, 0x02, 0x0C}},
       {'.', {0x00, 0x00, 0x00, 0x00, 0x00, 0x0C, 0x0C}}, {'-', {0x00, 0x00, 0x00, 0x1F, 0x00, 0x00, 0x00}},
       {'+', {0x00, 0x04, 0x04, 0x1F, 0x04, 0x04, 0x00}},
-      {'u', {0x00, 0x11, 0x11, 0x11, 0x13, 0x1D, 0x10}},  // µ, with its descender
+      {'u', {0x00, 0x12, 0x12, 0x12, 0x16, 0x1A, 0x10}},  // µ, with its descender
       {'m', {0x00, 0x00, 0x1A, 0x15, 0x15, 0x15, 0x15}}, {'n', {0x00, 0x00, 0x16, 0x19, 0x11, 0x11, 0x11}},
       {'e', {0x00, 0x00, 0x0E, 0x11, 0x1F, 0x10, 0x0E}}, {' ', {0, 0, 0, 0, 0, 0, 0}}};
   return g;
@@ -373,14 +373,14 @@ ViewBox intensity_view(const Mesh& mesh, const NodalFields& fields, IntensityQua
     if (is_pml(mesh, t)) continue;
     for (int k = 0; k < mesh.nodes_per_triangle(); ++k) {
       const int n = mesh.triangles[t][k];
-      if (v[n] < 1e-3 * peak) continue;
+      if (v[n] < 1e-2 * peak) continue;
       b.x_min = std::min(b.x_min, mesh.nodes[n][0]);
       b.x_max = std::max(b.x_max, mesh.nodes[n][0]);
       b.y_min = std::min(b.y_min, mesh.nodes[n][1]);
       b.y_max = std::max(b.y_max, mesh.nodes[n][1]);
     }
   }
-  // Pad by 30 % of the larger side and make the box at least 4:3-ish, so that thin modes keep
+  // Where the intensity exceeds 1 % of the peak (−20 dB), padded by 30 % of the larger side and make the box at least 4:3-ish, so that thin modes keep
   // room for the bars; then clip to the mesh.
   const double side = std::max(b.x_max - b.x_min, b.y_max - b.y_min);
   const double cx = 0.5 * (b.x_min + b.x_max), cy = 0.5 * (b.y_min + b.y_max);
@@ -461,7 +461,7 @@ PictureGeometry write_index_png(const Mesh& mesh, const std::vector<double>& ind
     if (!std::isfinite(n)) im.set(i, j, k_pml);
     else im.set(i, j, viridis_colour(hi > lo ? (n - lo) / (hi - lo) : 0.5));
   });
-  // Triangle edges, faint so that refined regions read as a darker texture, not a black blot.
+  // Triangle edges, faint so that refined regions read as a lighter texture, not a white blot.
   for (std::size_t e = 0; e < mesh.edges.size(); ++e) {
     std::vector<int> chain{mesh.edges[e][0]};
     if (mesh.order == 2 && mesh.edge_midnode[e] >= 0) chain.push_back(mesh.edge_midnode[e]);
@@ -469,7 +469,7 @@ PictureGeometry write_index_png(const Mesh& mesh, const std::vector<double>& ind
     for (std::size_t k = 0; k + 1 < chain.size(); ++k) {
       const auto& a = mesh.nodes[chain[k]];
       const auto& b = mesh.nodes[chain[k + 1]];
-      draw_segment(im, r.px(a[0]), r.py(a[1]), r.px(b[0]), r.py(b[1]), 0.5, k_halo, 0.35);
+      draw_segment(im, r.px(a[0]), r.py(a[1]), r.px(b[0]), r.py(b[1]), 0.5, k_ink, 0.3);
     }
   }
   draw_region_outlines(im, mesh, r, 0.9, k_outline, 1.0);

@@ -33,7 +33,7 @@ enum class IntensityQuantity { s_z, e_abs2 };
 
 struct PictureOptions {
   int width_px = 560;  ///< the height follows the aspect ratio of the view
-  /// What to show. Default: intensity pictures zoom to where the intensity exceeds 1e-3 of its
+  /// What to show. Default: intensity pictures zoom to where the intensity exceeds 1 % of its
   /// peak (padded, within the mesh); the index picture shows the whole mesh.
   std::optional<ViewBox> view;
   IntensityQuantity quantity = IntensityQuantity::s_z;

@@ -43,7 +43,7 @@ std::string fmt(const char* f, double v) {
 }
 
 /// A picture name the page may reference: relative, inside the folder, no scheme.
-bool is_local_name(const std::string& name) {
+[[maybe_unused]] bool is_local_name(const std::string& name) {
   if (name.empty() || name.find("://") != std::string::npos || name.front() == '/') return false;
   return name.find("..") == std::string::npos;
 }
