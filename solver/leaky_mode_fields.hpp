@@ -59,7 +59,8 @@ public:
   /// was solved on (InputError otherwise). Throws ComputationError if the mode carries no forward
   /// power in the physical domain.
   LeakyModeFieldEvaluator(const LeakyModeProblem& problem, const DofMap& dofs, const LeakyMode& mode);
-  /// The same for a mode returned by `solver` (its validated problem and DofMap).
+  /// The same for a mode returned by `solver` (its validated problem and DofMap). The solver must
+  /// outlive the evaluator and keep its wavelength, materials and PML while it is used.
   LeakyModeFieldEvaluator(const ComplexModeSolver& solver, const LeakyMode& mode);
 
   /// Normalised fields inside triangle t at reference coordinates (ξ, η).
