@@ -448,7 +448,9 @@ ModePictureFiles write_mode_pictures(const Mesh& mesh, const NodalFields& fields
 PictureGeometry write_index_png(const Mesh& mesh, const std::vector<double>& index_per_triangle,
                                 const PictureOptions& options, const std::filesystem::path& path) {
   assert(index_per_triangle.size() == mesh.triangles.size());
-  const Raster r = make_raster(options.view.value_or(mesh_bounds(mesh)), options.width_px);
+  ViewBox all = mesh_bounds(mesh);
+  all.x_max += 0.18 * (all.x_max - all.x_min);  // the colour bar and its labels beside the mesh
+  const Raster r = make_raster(options.view.value_or(all), options.width_px);
   double lo = std::numeric_limits<double>::max(), hi = std::numeric_limits<double>::lowest();
   for (double n : index_per_triangle) {
     if (!std::isfinite(n)) continue;

@@ -32,9 +32,10 @@ struct ViewBox {
 enum class IntensityQuantity { s_z, e_abs2 };
 
 struct PictureOptions {
-  int width_px = 560;  ///< the height follows the aspect ratio of the view
+  int width_px = 480;  ///< the height follows the aspect ratio of the view
   /// What to show. Default: intensity pictures zoom to where the intensity exceeds 1 % of its
-  /// peak (padded, within the mesh); the index picture shows the whole mesh.
+  /// peak (padded, within the mesh); the index picture shows the whole mesh
+  /// (with room on the right for the colour bar).
   std::optional<ViewBox> view;
   IntensityQuantity quantity = IntensityQuantity::s_z;
   int line_spacing_px = 22;  ///< polarisation picture: grid step of the line field

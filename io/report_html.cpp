@@ -10,6 +10,7 @@
 #include <fstream>
 #include <map>
 #include <optional>
+#include <regex>
 #include <set>
 #include <sstream>
 
@@ -72,8 +73,8 @@ table.summary td { text-align: left; }
 div.scroll { overflow-x: auto; }
 ul.warnings { background: #fff6e0; border-left: 4px solid #d9a400; padding: 0.5rem 0.5rem 0.5rem 2rem; }
 div.pictures { display: flex; flex-wrap: wrap; gap: 1rem; }
-figure { margin: 0; background: #fff; border: 1px solid #e2e2de; padding: 0.5rem; }
-figure img { display: block; max-width: 100%; height: auto; }
+figure { margin: 0; background: #fff; border: 1px solid #e2e2de; padding: 0.5rem; flex: 0 1 500px; }
+figure img { display: block; width: 100%; height: auto; }
 figcaption { font-size: 0.82rem; color: #444; margin-top: 0.35rem; }
 div.plots { display: flex; flex-wrap: wrap; gap: 1rem; }
 svg text { font-family: system-ui, sans-serif; font-size: 11px; fill: #333; }
@@ -348,8 +349,16 @@ std::string metric_heading(const std::string& key) {
       break;
     }
   }
-  std::replace(stem.begin(), stem.end(), '_', ' ');
-  return unit.empty() ? stem : stem + " (" + unit + ")";
+  // Words of the key as the trade writes them.
+  static const std::map<std::string, std::string> words{
+      {"mfd", "MFD"}, {"petermann", "Petermann"}, {"1e2", "1/e²"}, {"te", "TE"}, {"tm", "TM"}};
+  std::string heading;
+  std::istringstream parts(std::regex_replace(stem, std::regex("_"), " "));
+  for (std::string w; parts >> w;) {
+    const auto it = words.find(w);
+    heading += (heading.empty() ? "" : " ") + (it == words.end() ? w : it->second);
+  }
+  return unit.empty() ? heading : heading + " (" + unit + ")";
 }
 
 std::string report_html(const RunResult& run, const ReportInputs& in) {

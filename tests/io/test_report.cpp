@@ -78,10 +78,13 @@ double luminance(const std::array<unsigned char, 3>& c) {
 
 fs::path scratch_dir() { return fs::temp_directory_path() / ("cladwise-report-" + std::to_string(::getpid())); }
 
-/// Removes this process's scratch folder after the last test.
+/// Removes this process's scratch folder after the last test (kept when the environment sets
+/// CLADWISE_KEEP_TEST_OUTPUT, to look at the pictures and the page).
 class ScratchCleanup : public ::testing::Environment {
 public:
-  void TearDown() override { fs::remove_all(scratch_dir()); }
+  void TearDown() override {
+    if (!std::getenv("CLADWISE_KEEP_TEST_OUTPUT")) fs::remove_all(scratch_dir());
+  }
 };
 [[maybe_unused]] ::testing::Environment* const k_cleanup = ::testing::AddGlobalTestEnvironment(new ScratchCleanup);
 
@@ -289,8 +292,10 @@ TEST(ModePictures, IndexMapShowsTheCoreAsTheHighestIndex) {
   const Png im = read_png(file);
   ASSERT_EQ(im.w, 500);
   ASSERT_EQ(im.h, g.height_px);
-  // Whole mesh: the disk of radius 20 µm fills the square view.
-  EXPECT_NEAR(g.view.x_max - g.view.x_min, 40.0, 0.1);
+  // Whole mesh: the disk of radius 20 µm, with room for the colour bar on the right.
+  EXPECT_NEAR(g.view.x_min, -20.0, 0.01);
+  EXPECT_NEAR(g.view.y_max - g.view.y_min, 40.0, 0.1);
+  EXPECT_GT(g.view.x_max, 20.0);
   auto pixel_of = [&](double x, double y) {
     const double s_ = (g.view.x_max - g.view.x_min) / g.width_px;
     return std::array<int, 2>{static_cast<int>((x - g.view.x_min) / s_), static_cast<int>((g.view.y_max - y) / s_)};
@@ -481,7 +486,9 @@ TEST(ReportPage, MetricHeadingsCarryTheirUnits) {
   EXPECT_EQ(metric_heading("nonlinear_coefficient_per_w_km"), "nonlinear coefficient (1/(W·km))");
   EXPECT_EQ(metric_heading("beat_length_mm"), "beat length (mm)");
   EXPECT_EQ(metric_heading("coupling_length_m"), "coupling length (m)");
-  EXPECT_EQ(metric_heading("te_fraction"), "te fraction");
+  EXPECT_EQ(metric_heading("te_fraction"), "TE fraction");
+  EXPECT_EQ(metric_heading("mfd_petermann_x_um"), "MFD Petermann x (µm)");
+  EXPECT_EQ(metric_heading("width_1e2_y_um"), "width 1/e² y (µm)");
 }
 
 TEST(ReportPage, SweepPlotsDrawEveryTrackAtItsValues) {
