@@ -628,6 +628,8 @@ CaseSpec read_case(const toml::table& root, const std::filesystem::path& path) {
     c.solve.target_index = r.number("target_index");
     c.solve.check_pml = r.boolean("check_pml").value_or(false);
     c.solve.nonlinear_index_m2_per_w = r.number_or("nonlinear_index_m2_per_w", c.solve.nonlinear_index_m2_per_w);
+    c.solve.core_region = r.text("core_region");
+    if (c.solve.core_region) c.solve.core_region_where = r.where("core_region");
     r.finish();
   }
 

@@ -29,6 +29,8 @@ struct SolveSpec {
   std::optional<double> target_index;
   bool check_pml = false;
   double nonlinear_index_m2_per_w = 2.6e-20;  ///< n2 of the glass that carries the mode
+  std::optional<std::string> core_region;     ///< leaky solves: keep modes guided by this region
+  std::string core_region_where;
 };
 
 /// Absorption profile of the PML shell (its thickness is CrossSection::outer.pml_thickness).

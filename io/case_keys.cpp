@@ -181,6 +181,9 @@ constexpr std::array kKeys = {
             "Solve again with a doubled PML strength and flag every loss that changes by more than "
             "5 % (the loss is then set by the PML or the mesh, not by the guide)."},
 
+    CaseKey{"solve", "core_region", K::text, "", "none", "", B::any,
+            "Leaky and bent guides: keep only modes with at least half of ∫|E|² in this region "
+            "(e.g. the core of a tight bend, whose outer side also holds whispering-gallery modes)."},
     CaseKey{"solve", "nonlinear_index_m2_per_w", K::number, "m²/W", "2.6e-20", "", B::non_negative,
             "Nonlinear index n2 of the glass that carries the mode, for the nonlinear coefficient "
             "γ = 2π n2/(λ A_eff) (2.6e-20 m²/W: fused silica, common practice)."},

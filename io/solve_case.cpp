@@ -258,6 +258,17 @@ CaseSolution solve_leaky_point(const CaseSpec& c, ComplexModeSolver& solver, Pro
   request.n_modes = c.solve.n_modes;
   request.n_target = c.solve.target_index;
   if (c.solve.check_pml) request.pml_check_factor = 2.0;
+  if (c.solve.core_region) {
+    CoreSelection core;
+    const Mesh& mesh = *solver.problem().mesh;
+    for (int r = 0; r < static_cast<int>(mesh.regions.size()); ++r) {
+      if (mesh.regions[r].name == *c.solve.core_region) core.regions.push_back(r);
+    }
+    if (core.regions.empty()) {
+      throw InputError(c.solve.core_region_where, "no region of the mesh is called '" + *c.solve.core_region + "'");
+    }
+    request.core = core;
+  }
   const LeakySolveResult result = solver.solve(request);
   check_status(result.status, progress);
   if (result.modes.empty()) {

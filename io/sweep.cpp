@@ -6,6 +6,7 @@
 #include <sstream>
 
 #include "io/json_writer.hpp"
+#include "mesh/error.hpp"
 #include "solver/group_index.hpp"
 
 namespace cladwise::io {
@@ -129,6 +130,32 @@ std::string sweep_csv(const std::vector<CaseSolution>& points, const std::vector
     }
   }
   return o.str();
+}
+
+CutoffSearchResult case_cutoff(const CaseSpec& c, const Mesh& mesh, int mode_index, double start_um, double max_um) {
+  if (c.import) {
+    throw InputError(c.path.string(), "a cutoff search needs the background material of [domain]; an imported geometry has none");
+  }
+  CaseSpec at_start = c;
+  at_start.wavelength_um = start_um;
+  if (needs_complex_solver(at_start, mesh)) {
+    throw InputError(c.path.string(), "a cutoff search needs a lossless case without PML or bend (the mode must meet the cladding index on the real axis)");
+  }
+  const MaterialSpec* background = c.find_material(c.geometry.background_material);
+  if (!background) {
+    throw InputError(c.path.string(), "[domain] material '" + c.geometry.background_material + "' is not defined");
+  }
+  CutoffSearchRequest r;
+  r.start_wavelength_um = start_um;
+  r.max_wavelength_um = max_um;
+  r.mode_index = mode_index;
+  r.background_index = [background](double lam) { return background->max_index(lam); };
+  auto problem = [&c, &mesh](double lam) {
+    CaseSpec ci = c;
+    ci.wavelength_um = lam;
+    return mode_problem(ci, mesh);
+  };
+  return find_cutoff_wavelength(problem, r);
 }
 
 }  // namespace cladwise::io
