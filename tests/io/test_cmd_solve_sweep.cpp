@@ -9,6 +9,9 @@
 #include <map>
 
 #include "run_cli.hpp"
+#include "solver/material_catalogue.hpp"
+#include "solver/scalar_root.hpp"
+#include "solver/step_index.hpp"
 
 using cladwise::test::run_cli;
 using cladwise::test::slurp;
@@ -50,6 +53,21 @@ TEST(SolveSweep, StandardLikeFibreMeetsG652DispersionLimits) {
     EXPECT_LT(z.second.get<double>("wavelength_um"), 1.324);
     EXPECT_GT(z.second.get<double>("slope_ps_per_nm2_km"), 0.073);  // G.657/G.652 S0 band 0.073–0.092
     EXPECT_LT(z.second.get<double>("slope_ps_per_nm2_km"), 0.092);
+  }
+  // Against the exact fibre (solver/step_index: Richardson differences of the exact HE11 β(k0) with
+  // the same glasses; Snyder & Love ch. 12): the 50 nm grid's 3-point D and its linear
+  // interpolation between points leave about 1 nm in the zero and 0.05 ps/(nm km) in D.
+  using namespace cladwise;
+  const DispersiveStepIndexFibre exact{index_model(germania_silica(0.035)), index_model(silica_malitson1965()), 4.1};
+  auto d_exact = [&](double lam) {
+    return step_index_dispersion(exact, lam, ModeFamily::HE, 1, 1)->dispersion_ps_per_nm_km;
+  };
+  const double zdw_exact = brent_root(d_exact, 1.25, 1.40, d_exact(1.25), d_exact(1.40), 1e-9);  // 1.307984
+  const double s0_exact = (d_exact(zdw_exact + 1e-3) - d_exact(zdw_exact - 1e-3)) / 2.0;        // per nm
+  EXPECT_NEAR(d_155, d_exact(1.55), 0.1);
+  for (const auto& z : j.get_child("zero_dispersion")) {
+    EXPECT_NEAR(z.second.get<double>("wavelength_um"), zdw_exact, 2e-3);
+    EXPECT_NEAR(z.second.get<double>("slope_ps_per_nm2_km"), s0_exact, 0.01);
   }
   const std::string csv = slurp(out / "sweep.csv");
   EXPECT_EQ(csv.rfind("wavelength_um,track,label,n_eff,n_eff_imag,loss_db_per_m,n_group,dispersion_ps_per_nm_km", 0), 0u);

@@ -113,7 +113,9 @@ TEST(CutoffSearch, Te01OfAStepIndexFibreMatchesTheExactWalledAndOpenCutoffs) {
   // cutoff V = 2.408 lies just above TE01's, can pass above it).
   for (const auto& s : r.samples) {
     EXPECT_GT(s.overlap, 0.7) << s.wavelength_um;
-    if (s.n_eff > s.background_index) EXPECT_EQ(s.mode_position, 0) << s.wavelength_um;
+    if (s.n_eff > s.background_index) {
+      EXPECT_EQ(s.mode_position, 0) << s.wavelength_um;
+    }
     std::printf("  lambda %.6f  n_eff - n_clad %+.3e  overlap %.4f\n", s.wavelength_um, s.n_eff - s.background_index, s.overlap);
   }
   std::printf("TE01 cutoff: FEM %.6f um, walled exact %.6f, open exact %.6f; %d solves, %.1f s\n",
