@@ -11,6 +11,7 @@
 #include "mesh/error.hpp"
 #include "solver/assembly.hpp"
 #include "solver/element_kernels.hpp"
+#include "solver/field_recovery.hpp"
 
 namespace cladwise {
 
@@ -27,38 +28,6 @@ struct InversePermeability {
 
 InversePermeability inverse_permeability(const TensorMaterial& m) {
   return {m.mu_t.inverse(), 1.0 / m.mu_zz};
-}
-
-template <int Order>
-FieldSample raw_fields(const MappedPoint& m, const Eigen::Vector2d& xi, const Complex* c_t,
-                       const Complex* c_z, Complex beta, double k0, const InversePermeability& nu) {
-  typename NedelecTriangle<Order>::Values n;
-  typename NedelecTriangle<Order>::Curls curl;
-  typename LagrangeTriangle<Order>::Values l;
-  typename LagrangeTriangle<Order>::Gradients gl;
-  edge_basis<Order>(m, xi, n, curl);
-  nodal_basis<Order>(m, xi, l, gl);
-  Eigen::Vector2cd et = Eigen::Vector2cd::Zero(), grad_ez = Eigen::Vector2cd::Zero();
-  Complex curl_et = 0.0, ez = 0.0;
-  for (int i = 0; i < NedelecTriangle<Order>::n_functions; ++i) {
-    et += c_t[i] * n.col(i);
-    curl_et += c_t[i] * curl[i];
-  }
-  for (int i = 0; i < LagrangeTriangle<Order>::n_functions; ++i) {
-    ez += c_z[i] * l[i];
-    grad_ez += c_z[i] * gl.col(i);
-  }
-  FieldSample s;
-  // E_t = e_t/β, E_z = j e_z (formulation.md eq. 5, complex β)
-  s.e << et.x() / beta, et.y() / beta, kJ * ez;
-  // ∇×E from eqs. (2), (3) in the scaled unknowns (formulation.md eq. 16)
-  const Eigen::Vector2cd curl_e_t(kJ * (grad_ez.y() + et.y()), -kJ * (grad_ez.x() + et.x()));
-  const Complex curl_e_z = curl_et / beta;
-  // Faraday: H = j μ⁻¹ (∇×E) / (k0 Z0), μ the (bent, stretched) tensor the solver assembled
-  const double z0k0 = k0 * vacuum_impedance_ohm;
-  const Eigen::Vector2cd h_t = kJ * (nu.t * curl_e_t) / z0k0;
-  s.h << h_t.x(), h_t.y(), kJ * nu.zz * curl_e_z / z0k0;
-  return s;
 }
 
 }  // namespace
@@ -118,21 +87,20 @@ LeakyModeFieldEvaluator::LeakyModeFieldEvaluator(const LeakyModeProblem& problem
 
 FieldSample LeakyModeFieldEvaluator::raw_at(int t, const Eigen::Vector2d& xi) const {
   const Mesh& mesh = dofs_->mesh();
-  int index[14];
-  double sign[14];
-  dofs_->element_dofs(t, index, sign);
-  Complex c[14];
-  for (int i = 0; i < dofs_->n_local(); ++i) {
-    c[i] = index[i] < 0 ? Complex(0.0) : sign[i] * mode_->eigenvector[index[i]];
-  }
-  const ElementGeometry g = element_geometry(mesh, t);
-  const MappedPoint m = map_point(g, xi);
-  const int region = mesh.triangle_region[t];
+  Complex c[kMaxLocalDofs];
+  element_coefficients(*dofs_, t, mode_->eigenvector, c);
+  const MappedPoint m = map_point(element_geometry(mesh, t), xi);
+  const ElectricField f = element_electric_field(*dofs_, m, xi, c, mode_->beta);
   // μ varies inside PML and bent elements: evaluate the medium at the point itself.
-  const InversePermeability nu = inverse_permeability(leaky_medium_at(*problem_, region, m.x));
-  const int nt = dofs_->n_local_edge();
-  return dofs_->order() == 1 ? raw_fields<1>(m, xi, c, c + nt, mode_->beta, k0_, nu)
-                             : raw_fields<2>(m, xi, c, c + nt, mode_->beta, k0_, nu);
+  const InversePermeability nu = inverse_permeability(leaky_medium_at(*problem_, mesh.triangle_region[t], m.x));
+  // Faraday: H = j μ⁻¹ (∇×E) / (k0 Z0), μ the (bent, stretched) tensor the solver assembled
+  const double z0k0 = k0_ * vacuum_impedance_ohm;
+  const Eigen::Vector2cd curl_e_t = f.curl_e.head<2>();
+  const Eigen::Vector2cd h_t = kJ * (nu.t * curl_e_t) / z0k0;
+  FieldSample s;
+  s.e = f.e;
+  s.h << h_t.x(), h_t.y(), kJ * nu.zz * f.curl_e.z() / z0k0;
+  return s;
 }
 
 FieldSample LeakyModeFieldEvaluator::at_reference(int t, const Eigen::Vector2d& xi) const {
@@ -143,49 +111,13 @@ FieldSample LeakyModeFieldEvaluator::at_reference(int t, const Eigen::Vector2d& 
 }
 
 std::optional<FieldSample> LeakyModeFieldEvaluator::at_point(int t, const Point2& x) const {
-  const ElementGeometry g = element_geometry(dofs_->mesh(), t);
-  const Eigen::Vector2d target(x[0], x[1]);
-  Eigen::Vector2d xi(1.0 / 3.0, 1.0 / 3.0);
-  for (int it = 0; it < 30; ++it) {  // Newton on x(ξ) = x (one step for straight elements)
-    const MappedPoint m = map_point(g, xi);
-    const Eigen::Vector2d step = m.jacobian.lu().solve(m.x - target);
-    xi -= step;
-    if (step.norm() < 1e-14) break;
-  }
-  const double tol = 1e-10;
-  if (xi.x() < -tol || xi.y() < -tol || xi.x() + xi.y() > 1.0 + tol ||
-      (map_point(g, xi).x - target).norm() > 1e-9 * (1.0 + target.norm())) {
-    return std::nullopt;
-  }
-  return at_reference(t, xi);
+  const std::optional<Eigen::Vector2d> xi = reference_coordinates(element_geometry(dofs_->mesh(), t), x);
+  if (!xi) return std::nullopt;
+  return at_reference(t, *xi);
 }
 
 NodalFields LeakyModeFieldEvaluator::at_nodes() const {
-  const Mesh& mesh = dofs_->mesh();
-  const int nn = mesh.n_nodes();
-  NodalFields f;
-  f.e.assign(nn, Eigen::Vector3cd::Zero());
-  f.h.assign(nn, Eigen::Vector3cd::Zero());
-  f.s_z.assign(nn, 0.0);
-  std::vector<int> count(nn, 0);
-  static const Eigen::Vector2d ref_nodes[6] = {{0.0, 0.0}, {1.0, 0.0}, {0.0, 1.0},
-                                               {0.5, 0.0}, {0.5, 0.5}, {0.0, 0.5}};
-  for (int t = 0; t < mesh.n_triangles(); ++t) {
-    for (int i = 0; i < mesh.nodes_per_triangle(); ++i) {
-      const int node = mesh.triangles[t][i];
-      const FieldSample s = at_reference(t, ref_nodes[i]);
-      f.e[node] += s.e;
-      f.h[node] += s.h;
-      ++count[node];
-    }
-  }
-  for (int i = 0; i < nn; ++i) {
-    if (count[i] == 0) continue;
-    f.e[i] /= count[i];
-    f.h[i] /= count[i];
-    f.s_z[i] = FieldSample{f.e[i], f.h[i]}.s_z();
-  }
-  return f;
+  return nodal_average(dofs_->mesh(), [this](int t, const Eigen::Vector2d& xi) { return at_reference(t, xi); });
 }
 
 }  // namespace cladwise

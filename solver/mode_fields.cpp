@@ -9,42 +9,13 @@
 #include "mesh/error.hpp"
 #include "solver/assembly.hpp"
 #include "solver/element_kernels.hpp"
+#include "solver/field_recovery.hpp"
 
 namespace cladwise {
 
 namespace {
 
 constexpr std::complex<double> kJ{0.0, 1.0};
-
-template <int Order>
-FieldSample raw_fields(const ElementGeometry& g, const double* c_t, const double* c_z, double beta,
-                       double k0, const Material& mat, const Eigen::Vector2d& xi) {
-  const MappedPoint m = map_point(g, xi);
-  typename NedelecTriangle<Order>::Values n;
-  typename NedelecTriangle<Order>::Curls curl;
-  typename LagrangeTriangle<Order>::Values l;
-  typename LagrangeTriangle<Order>::Gradients gl;
-  edge_basis<Order>(m, xi, n, curl);
-  nodal_basis<Order>(m, xi, l, gl);
-  Eigen::Vector2d et = Eigen::Vector2d::Zero(), grad_ez = Eigen::Vector2d::Zero();
-  double curl_et = 0.0, ez = 0.0;
-  for (int i = 0; i < NedelecTriangle<Order>::n_functions; ++i) {
-    et += c_t[i] * n.col(i);
-    curl_et += c_t[i] * curl[i];
-  }
-  for (int i = 0; i < LagrangeTriangle<Order>::n_functions; ++i) {
-    ez += c_z[i] * l[i];
-    grad_ez += c_z[i] * gl.col(i);
-  }
-  FieldSample s;
-  s.e << et.x() / beta, et.y() / beta, kJ * ez;
-  const Eigen::Vector3cd curl_e(kJ * (grad_ez.y() + et.y()), -kJ * (grad_ez.x() + et.x()),
-                                curl_et / beta);
-  const double z0k0 = k0 * vacuum_impedance_ohm;
-  s.h << kJ * mat.mu_inv_xx * curl_e.x() / z0k0, kJ * mat.mu_inv_yy * curl_e.y() / z0k0,
-      kJ * mat.mu_inv_zz * curl_e.z() / z0k0;
-  return s;
-}
 
 }  // namespace
 
@@ -74,18 +45,18 @@ ModeFieldEvaluator::ModeFieldEvaluator(const ModeProblem& problem, const DofMap&
 
 FieldSample ModeFieldEvaluator::raw_at(int t, const Eigen::Vector2d& xi) const {
   const Mesh& mesh = dofs_->mesh();
-  int index[14];
-  double sign[14];
-  dofs_->element_dofs(t, index, sign);
-  double c[14];
-  for (int i = 0; i < dofs_->n_local(); ++i) {
-    c[i] = index[i] < 0 ? 0.0 : sign[i] * mode_->eigenvector[index[i]];
-  }
-  const ElementGeometry g = element_geometry(mesh, t);
+  double c[kMaxLocalDofs];
+  element_coefficients(*dofs_, t, mode_->eigenvector, c);
+  const MappedPoint m = map_point(element_geometry(mesh, t), xi);
+  const ElectricField f = element_electric_field(*dofs_, m, xi, c, mode_->beta);
+  // Faraday: H = j μ_r⁻¹ (∇×E) / (k0 Z0), μ_r⁻¹ diagonal and constant in the region
   const Material& mat = problem_->region_materials[mesh.triangle_region[t]];
-  const int nt = dofs_->n_local_edge();
-  return dofs_->order() == 1 ? raw_fields<1>(g, c, c + nt, mode_->beta, k0_, mat, xi)
-                             : raw_fields<2>(g, c, c + nt, mode_->beta, k0_, mat, xi);
+  const double z0k0 = k0_ * vacuum_impedance_ohm;
+  FieldSample s;
+  s.e = f.e;
+  s.h << kJ * mat.mu_inv_xx * f.curl_e.x() / z0k0, kJ * mat.mu_inv_yy * f.curl_e.y() / z0k0,
+      kJ * mat.mu_inv_zz * f.curl_e.z() / z0k0;
+  return s;
 }
 
 FieldSample ModeFieldEvaluator::at_reference(int t, const Eigen::Vector2d& xi) const {
@@ -96,49 +67,13 @@ FieldSample ModeFieldEvaluator::at_reference(int t, const Eigen::Vector2d& xi) c
 }
 
 std::optional<FieldSample> ModeFieldEvaluator::at_point(int t, const Point2& x) const {
-  const ElementGeometry g = element_geometry(dofs_->mesh(), t);
-  const Eigen::Vector2d target(x[0], x[1]);
-  Eigen::Vector2d xi(1.0 / 3.0, 1.0 / 3.0);
-  for (int it = 0; it < 30; ++it) {  // Newton on x(ξ) = x (one step for straight elements)
-    const MappedPoint m = map_point(g, xi);
-    const Eigen::Vector2d step = m.jacobian.lu().solve(m.x - target);
-    xi -= step;
-    if (step.norm() < 1e-14) break;
-  }
-  const double tol = 1e-10;
-  if (xi.x() < -tol || xi.y() < -tol || xi.x() + xi.y() > 1.0 + tol ||
-      (map_point(g, xi).x - target).norm() > 1e-9 * (1.0 + target.norm())) {
-    return std::nullopt;
-  }
-  return at_reference(t, xi);
+  const std::optional<Eigen::Vector2d> xi = reference_coordinates(element_geometry(dofs_->mesh(), t), x);
+  if (!xi) return std::nullopt;
+  return at_reference(t, *xi);
 }
 
 NodalFields ModeFieldEvaluator::at_nodes() const {
-  const Mesh& mesh = dofs_->mesh();
-  const int nn = mesh.n_nodes();
-  NodalFields f;
-  f.e.assign(nn, Eigen::Vector3cd::Zero());
-  f.h.assign(nn, Eigen::Vector3cd::Zero());
-  f.s_z.assign(nn, 0.0);
-  std::vector<int> count(nn, 0);
-  static const Eigen::Vector2d ref_nodes[6] = {{0.0, 0.0}, {1.0, 0.0}, {0.0, 1.0},
-                                               {0.5, 0.0}, {0.5, 0.5}, {0.0, 0.5}};
-  for (int t = 0; t < mesh.n_triangles(); ++t) {
-    for (int i = 0; i < mesh.nodes_per_triangle(); ++i) {
-      const int node = mesh.triangles[t][i];
-      const FieldSample s = at_reference(t, ref_nodes[i]);
-      f.e[node] += s.e;
-      f.h[node] += s.h;
-      ++count[node];
-    }
-  }
-  for (int i = 0; i < nn; ++i) {
-    if (count[i] == 0) continue;
-    f.e[i] /= count[i];
-    f.h[i] /= count[i];
-    f.s_z[i] = FieldSample{f.e[i], f.h[i]}.s_z();
-  }
-  return f;
+  return nodal_average(dofs_->mesh(), [this](int t, const Eigen::Vector2d& xi) { return at_reference(t, xi); });
 }
 
 }  // namespace cladwise
