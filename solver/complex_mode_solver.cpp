@@ -2,7 +2,6 @@
 #include "solver/complex_mode_solver.hpp"
 
 #include <Eigen/SparseCore>
-#include <Eigen/UmfPackSupport>
 #include <arpack/arpack.hpp>
 
 #include <algorithm>
@@ -17,6 +16,7 @@
 #include "solver/lagrange_triangle.hpp"
 #include "solver/nedelec_triangle.hpp"
 #include "solver/quadrature.hpp"
+#include "solver/shift_invert.hpp"
 
 namespace cladwise {
 
@@ -168,15 +168,9 @@ double loss_db_per_m(double k0_per_um, double n_eff_imag) {
   return 20.0 / std::log(10.0) * k0_per_um * std::abs(n_eff_imag) * 1e6;
 }
 
-/// One complex LU of K = A − σB and the shift-invert operator
-///   op(x) = (A − σB)⁻¹ B x,  θ = 1/(λ − σ)  ⇔  λ = σ + 1/θ.
-struct ComplexModeSolver::Factorization {
-  Eigen::UmfPackLU<SpMat> lu;
-  SpMat k;
-  bool analysed = false;
-  bool valid = false;
-  double sigma = 0.0;
-};
+/// The complex LU of K = A − σB and the operator op(x) = (A − σB)⁻¹ B x
+/// (solver/shift_invert.hpp), applied in ARPACK's reverse communication.
+struct ComplexModeSolver::Factorization : ShiftInvert<Complex> {};
 
 ComplexModeSolver::ComplexModeSolver(LeakyModeProblem problem)
     : problem_(validated(std::move(problem))),
@@ -209,7 +203,7 @@ void ComplexModeSolver::set_wavelength(double wavelength_um,
   if (materials) p.region_materials = std::move(*materials);
   problem_ = validated(std::move(p));
   assembled_ = false;
-  lu_->valid = false;
+  lu_->invalidate();
 }
 
 void ComplexModeSolver::set_pml_strength(double strength) {
@@ -219,7 +213,7 @@ void ComplexModeSolver::set_pml_strength(double strength) {
   validate(p);
   problem_.pml = p;
   assembled_ = false;
-  lu_->valid = false;
+  lu_->invalidate();
 }
 
 MaterialTensors<Complex> ComplexModeSolver::tensors_at(int region, const Eigen::Vector2d& x) const {
@@ -242,7 +236,7 @@ void ComplexModeSolver::assemble() {
   }
   matrices_ = assemble_waveguide<Complex>(dofs_, media, k0());
   assembled_ = true;
-  lu_->valid = false;
+  lu_->invalidate();
   assembly_s_ = seconds_since(t0);
 }
 
@@ -358,22 +352,9 @@ LeakySolveResult ComplexModeSolver::solve_once(const LeakySolveRequest& request)
   // ---- factorisation of K = A − σB (pattern analysed once per mesh) ----------------------------
   const auto t_fact = Clock::now();
   Factorization& f = *lu_;
-  if (!f.valid || f.sigma != sigma) {
-    f.k = matrices_.a - Complex(sigma) * matrices_.b;
-    f.k.makeCompressed();
-    if (!f.analysed) {
-      // No iterative refinement inside Arnoldi (as in mode_solver.cpp, where it was measured to
-      // triple the cost of each step); eigenvalues are polished by Rayleigh quotients instead.
-      f.lu.umfpackControl()(UMFPACK_IRSTEP) = 0;
-      f.lu.analyzePattern(f.k);
-      f.analysed = true;
-    }
-    f.lu.factorize(f.k);
-    f.sigma = sigma;
-    f.valid = f.lu.info() == Eigen::Success;
-  }
+  const bool factorized = f.factorize(matrices_.a, matrices_.b, sigma);
   result.timing.factorization_s = seconds_since(t_fact);
-  if (!f.valid) {
+  if (!factorized) {
     result.status = EigenStatus::factorization_failed;
     return result;
   }
@@ -387,7 +368,6 @@ LeakySolveResult ComplexModeSolver::solve_once(const LeakySolveRequest& request)
   bool arnoldi_ok = true;
   bool residual_failed = false;
   std::vector<LeakyMode> accepted;
-  Eigen::VectorXcd bx(n);
   for (;;) {
     const int ncv = std::min(n, std::max(2 * nev + 1, 40));
     a_int ido = 0, info = 0;
@@ -403,10 +383,7 @@ LeakySolveResult ComplexModeSolver::solve_once(const LeakySolveRequest& request)
                     request.arnoldi_tolerance, resid.data(), ncv, v.data(), n, iparam, ipntr,
                     workd.data(), workl.data(), lworkl, rwork.data(), info);
       if (ido != -1 && ido != 1) break;
-      Eigen::Map<const Eigen::VectorXcd> x(workd.data() + ipntr[0] - 1, n);
-      Eigen::Map<Eigen::VectorXcd> y(workd.data() + ipntr[1] - 1, n);
-      bx.noalias() = matrices_.b * x;
-      y = f.lu.solve(bx);
+      f.perform_op(workd.data() + ipntr[0] - 1, workd.data() + ipntr[1] - 1);
     }
     if (info < 0) {
       throw ComputationError("complex eigen solve: ARPACK znaupd failed with info = " +

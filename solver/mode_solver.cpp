@@ -2,7 +2,6 @@
 #include "solver/mode_solver.hpp"
 
 #include <Eigen/SparseCore>
-#include <Eigen/UmfPackSupport>
 #include <Eigen/Eigenvalues>
 #include <Spectra/GenEigsSolver.h>
 
@@ -15,6 +14,7 @@
 #include <string>
 
 #include "mesh/error.hpp"
+#include "solver/shift_invert.hpp"
 
 namespace cladwise {
 
@@ -65,30 +65,8 @@ std::string_view to_string(EigenStatus s) {
   return "unknown";
 }
 
-/// One LU of K = A − σB, and the shift-invert operator in Spectra's concept:
-///   op(x) = (A − σB)⁻¹ B x,  θ = 1/(λ − σ)  ⇔  λ = σ + 1/θ   (spectral transformation)
-/// Largest |θ| are the eigenvalues λ nearest the shift σ.
-struct ModeSolver::Factorization {
-  Eigen::UmfPackLU<SpMat> lu;
-  SpMat k;
-  bool analysed = false;
-  bool valid = false;
-  double sigma = 0.0;
-  const SpMat* b = nullptr;
-  mutable Eigen::VectorXd bx;
-  mutable long n_ops = 0;  // operator applications (diagnostics: cost of the eigensolve)
-
-  using Scalar = double;  // Spectra operator concept
-  Eigen::Index rows() const { return k.rows(); }
-  Eigen::Index cols() const { return k.cols(); }
-  void perform_op(const double* x_in, double* y_out) const {
-    Eigen::Map<const Eigen::VectorXd> x(x_in, k.cols());
-    Eigen::Map<Eigen::VectorXd> y(y_out, k.rows());
-    bx.noalias() = (*b) * x;
-    y = lu.solve(bx);
-    ++n_ops;
-  }
-};
+/// The LU of K = A − σB and the operator op(x) = (A − σB)⁻¹ B x (solver/shift_invert.hpp).
+struct ModeSolver::Factorization : ShiftInvert<double> {};
 
 ModeSolver::ModeSolver(ModeProblem problem)
     : problem_(validated(std::move(problem))),
@@ -122,7 +100,7 @@ void ModeSolver::set_wavelength(double wavelength_um, std::optional<std::vector<
   if (materials) p.region_materials = std::move(*materials);
   problem_ = validated(std::move(p));
   assembled_ = false;
-  lu_->valid = false;
+  lu_->invalidate();
 }
 
 void ModeSolver::assemble() {
@@ -133,7 +111,7 @@ void ModeSolver::assemble() {
   for (const auto& m : problem_.region_materials) tensors.push_back(material_tensors(m));
   matrices_ = assemble_waveguide<double>(dofs_, tensors, k0());
   assembled_ = true;
-  lu_->valid = false;
+  lu_->invalidate();
   assembly_s_ = seconds_since(t0);
   report("assembly", 1.0);
 }
@@ -248,26 +226,10 @@ SolveResult ModeSolver::solve(const SolveRequest& request) {
   const auto t_fact = Clock::now();
   report("factorization", 0.0);
   Factorization& f = *lu_;
-  if (!f.valid || f.sigma != sigma) {
-    f.k = matrices_.a - sigma * matrices_.b;
-    f.k.makeCompressed();
-    if (!f.analysed) {
-      // No iterative refinement in the solves: it doubles or triples the cost of every Arnoldi
-      // step (measured: eigensolve 3.5 s -> 0.39 s on a 12k-unknown fibre), and the Krylov space
-      // needs no more than the LU's own backward stability; the eigenvalues are then polished by
-      // Rayleigh quotients and checked by their residuals against A and B themselves.
-      f.lu.umfpackControl()(UMFPACK_IRSTEP) = 0;
-      f.lu.analyzePattern(f.k);
-      f.analysed = true;
-    }
-    f.lu.factorize(f.k);
-    f.sigma = sigma;
-    f.b = &matrices_.b;
-    f.valid = f.lu.info() == Eigen::Success;
-  }
+  const bool factorized = f.factorize(matrices_.a, matrices_.b, sigma);
   result.timing.factorization_s = seconds_since(t_fact);
   report("factorization", 1.0);
-  if (!f.valid) {
+  if (!factorized) {
     result.status = EigenStatus::factorization_failed;
     return result;
   }
@@ -298,7 +260,7 @@ SolveResult ModeSolver::solve(const SolveRequest& request) {
 
   std::vector<Candidate> accepted;
   bool arnoldi_ok = true;
-  const long ops_before = f.n_ops;
+  const long ops_before = f.n_operator_applications();
   for (;;) {
     report("eigensolve", 0.0);
     // A wide subspace: fewer restarts for the same number of operator applications.
@@ -425,7 +387,7 @@ SolveResult ModeSolver::solve(const SolveRequest& request) {
   std::sort(result.modes.begin(), result.modes.end(),
             [](const Mode& a, const Mode& b) { return a.n_eff > b.n_eff; });
   result.timing.eigensolve_s = seconds_since(t_eig);
-  result.n_operator_applications = f.n_ops - ops_before;
+  result.n_operator_applications = f.n_operator_applications() - ops_before;
 
   if (!arnoldi_ok) result.status = EigenStatus::not_converged;
   else if (residual_failed) result.status = EigenStatus::residual_too_large;
