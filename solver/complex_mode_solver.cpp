@@ -13,8 +13,7 @@
 
 #include "mesh/error.hpp"
 #include "solver/element_kernels.hpp"
-#include "solver/lagrange_triangle.hpp"
-#include "solver/nedelec_triangle.hpp"
+#include "solver/field_recovery.hpp"
 #include "solver/quadrature.hpp"
 #include "solver/shift_invert.hpp"
 
@@ -79,55 +78,36 @@ Complex dotu(const Eigen::VectorXcd& x, const Eigen::VectorXcd& y) {
   return (x.transpose() * y)(0, 0);
 }
 
-template <int Order>
-double element_e_squared(const ElementGeometry& g, const Complex* c_t, const Complex* c_z,
-                         Complex beta, const QuadratureRule& rule) {
-  typename NedelecTriangle<Order>::Values n;
-  typename NedelecTriangle<Order>::Curls curl;
-  typename LagrangeTriangle<Order>::Values l;
-  typename LagrangeTriangle<Order>::Gradients gl;
-  double sum = 0.0;
+// ∫|E|² dA over one element (first) and over the part of it where inside(x) holds (second), by
+// the kernels' quadrature of the exact element field.
+template <int Order, class Inside>
+std::pair<double, double> element_e_squared(const ElementGeometry& g, const Complex* c_t,
+                                            const Complex* c_z, Complex beta,
+                                            const QuadratureRule& rule, const Inside& inside) {
+  double all = 0.0, in = 0.0;
   for (int q = 0; q < rule.n_points(); ++q) {
     const Eigen::Vector2d& xi = rule.points[q];
     const MappedPoint m = map_point(g, xi);
-    edge_basis<Order>(m, xi, n, curl);
-    nodal_basis<Order>(m, xi, l, gl);
-    Eigen::Vector2cd et = Eigen::Vector2cd::Zero();
-    Complex ez = 0.0;
-    for (int i = 0; i < NedelecTriangle<Order>::n_functions; ++i) et += c_t[i] * n.col(i);
-    for (int i = 0; i < LagrangeTriangle<Order>::n_functions; ++i) ez += c_z[i] * l[i];
+    const ScaledFieldValues<Complex> v = interpolate_scaled_fields<Order>(m, xi, c_t, c_z);
     // E_t = e_t/β, E_z = j e_z (formulation.md eq. 5)
-    sum += rule.weights[q] * m.det * ((et / beta).squaredNorm() + std::norm(ez));
+    const double e2 = rule.weights[q] * m.det * ((v.e_t / beta).squaredNorm() + std::norm(v.e_z));
+    all += e2;
+    if (inside(m.x)) in += e2;
   }
-  return sum;
+  return {all, in};
 }
 
-// ∫|E|² dA over one element (first) and over the part of it inside the disk |x − c| < r (second),
-// by the same quadrature as element_e_squared.
-template <int Order>
-std::pair<double, double> element_e_squared_in_disk(const ElementGeometry& g, const Complex* c_t,
-                                                    const Complex* c_z, Complex beta,
-                                                    const QuadratureRule& rule,
-                                                    const Eigen::Vector2d& centre, double radius) {
-  typename NedelecTriangle<Order>::Values n;
-  typename NedelecTriangle<Order>::Curls curl;
-  typename LagrangeTriangle<Order>::Values l;
-  typename LagrangeTriangle<Order>::Gradients gl;
-  double all = 0.0, inside = 0.0;
-  for (int q = 0; q < rule.n_points(); ++q) {
-    const Eigen::Vector2d& xi = rule.points[q];
-    const MappedPoint m = map_point(g, xi);
-    edge_basis<Order>(m, xi, n, curl);
-    nodal_basis<Order>(m, xi, l, gl);
-    Eigen::Vector2cd et = Eigen::Vector2cd::Zero();
-    Complex ez = 0.0;
-    for (int i = 0; i < NedelecTriangle<Order>::n_functions; ++i) et += c_t[i] * n.col(i);
-    for (int i = 0; i < LagrangeTriangle<Order>::n_functions; ++i) ez += c_z[i] * l[i];
-    const double e2 = rule.weights[q] * m.det * ((et / beta).squaredNorm() + std::norm(ez));
-    all += e2;
-    if ((m.x - centre).norm() < radius) inside += e2;
-  }
-  return {all, inside};
+// The same for triangle t of the eigenvector x.
+template <class Inside>
+std::pair<double, double> element_e_squared(const DofMap& dofs, int t, const Eigen::VectorXcd& x,
+                                            Complex beta, const QuadratureRule& rule,
+                                            const Inside& inside) {
+  Complex c[kMaxLocalDofs];
+  element_coefficients(dofs, t, x, c);
+  const ElementGeometry g = element_geometry(dofs.mesh(), t);
+  const int nt = dofs.n_local_edge();
+  return dofs.order() == 1 ? element_e_squared<1>(g, c, c + nt, beta, rule, inside)
+                           : element_e_squared<2>(g, c, c + nt, beta, rule, inside);
 }
 
 void validate(const CoreSelection& core, const Mesh& mesh) {
@@ -243,17 +223,10 @@ void ComplexModeSolver::assemble() {
 double ComplexModeSolver::physical_fraction(const Eigen::VectorXcd& x, Complex beta) const {
   const Mesh& mesh = *problem_.mesh;
   const QuadratureRule& rule = triangle_rule(kernel_quadrature_degree(dofs_.order()));
+  const auto nowhere = [](const Eigen::Vector2d&) { return false; };
   double phys = 0.0, all = 0.0;
-  int index[14];
-  double sign[14];
-  Complex c[14];
-  const int nt = dofs_.n_local_edge();
   for (int t = 0; t < mesh.n_triangles(); ++t) {
-    dofs_.element_dofs(t, index, sign);
-    for (int i = 0; i < dofs_.n_local(); ++i) c[i] = index[i] < 0 ? Complex(0.0) : sign[i] * x[index[i]];
-    const ElementGeometry g = element_geometry(mesh, t);
-    const double e2 = dofs_.order() == 1 ? element_e_squared<1>(g, c, c + nt, beta, rule)
-                                         : element_e_squared<2>(g, c, c + nt, beta, rule);
+    const double e2 = element_e_squared(dofs_, t, x, beta, rule, nowhere).first;
     all += e2;
     if (mesh.regions[mesh.triangle_region[t]].role != RegionRole::pml) phys += e2;
   }
@@ -270,29 +243,16 @@ double ComplexModeSolver::core_fraction(const Eigen::VectorXcd& x, Complex beta,
   const Eigen::Vector2d centre(core.centre[0], core.centre[1]);
   const QuadratureRule& rule = triangle_rule(kernel_quadrature_degree(dofs_.order()));
   double phys = 0.0, inside = 0.0;
-  int index[14];
-  double sign[14];
-  Complex c[14];
-  const int nt = dofs_.n_local_edge();
   for (int t = 0; t < mesh.n_triangles(); ++t) {
     const int region = mesh.triangle_region[t];
     if (mesh.regions[region].role == RegionRole::pml) continue;
-    dofs_.element_dofs(t, index, sign);
-    for (int i = 0; i < dofs_.n_local(); ++i) c[i] = index[i] < 0 ? Complex(0.0) : sign[i] * x[index[i]];
-    const ElementGeometry g = element_geometry(mesh, t);
-    if (by_disk) {
-      const auto [all, in] =
-          dofs_.order() == 1
-              ? element_e_squared_in_disk<1>(g, c, c + nt, beta, rule, centre, core.radius_um)
-              : element_e_squared_in_disk<2>(g, c, c + nt, beta, rule, centre, core.radius_um);
-      phys += all;
-      inside += in;
-    } else {
-      const double e2 = dofs_.order() == 1 ? element_e_squared<1>(g, c, c + nt, beta, rule)
-                                           : element_e_squared<2>(g, c, c + nt, beta, rule);
-      phys += e2;
-      if (in_core[region]) inside += e2;
-    }
+    // A core region holds every quadrature point of its triangles; a disk is tested point by point.
+    const auto in_the_core = [&](const Eigen::Vector2d& p) {
+      return by_disk ? (p - centre).norm() < core.radius_um : in_core[region] != 0;
+    };
+    const auto [all, in] = element_e_squared(dofs_, t, x, beta, rule, in_the_core);
+    phys += all;
+    inside += in;
   }
   return phys > 0.0 ? inside / phys : 0.0;
 }
