@@ -568,7 +568,7 @@ CaseSpec read_case(const toml::table& root, const std::filesystem::path& path) {
     if (!n->is_table()) throw InputError(file_line(file, n->source()) + " '" + name + "'", "must be a [" + std::string(name) + "] section");
     return n->as_table();
   };
-  std::set<std::string> sections_seen = {"title", "wavelength_um", "materials", "domain", "region", "mesh", "solve", "import", "bend", "sweep"};
+  std::set<std::string> sections_seen = {"title", "wavelength_um", "materials", "domain", "region", "mesh", "solve", "import", "bend", "sweep", "cutoff"};
   for (const auto& [key, value] : root) {
     const std::string k(key.str());
     if (!sections_seen.count(k)) {
@@ -631,6 +631,21 @@ CaseSpec read_case(const toml::table& root, const std::filesystem::path& path) {
     c.solve.core_region = r.text("core_region");
     if (c.solve.core_region) c.solve.core_region_where = r.where("core_region");
     r.finish();
+  }
+
+  // [cutoff]
+  if (const toml::table* t = section("cutoff")) {
+    TableReader r(*t, "cutoff", "[cutoff]", file);
+    CutoffSpec cs;
+    cs.where = r.where();
+    cs.mode = static_cast<int>(r.required_integer("mode"));
+    cs.from_um = r.number("from_um");
+    cs.to_um = r.required_number("to_um");
+    r.finish();
+    if (!(cs.to_um > cs.from_um.value_or(c.wavelength_um))) {
+      throw InputError(r.where("to_um"), "must be longer than the start of the search");
+    }
+    c.cutoff = cs;
   }
 
   // [bend]

@@ -39,6 +39,14 @@ struct PmlSpec {
   int power = 2;
 };
 
+/// [cutoff]: the cutoff wavelength of one mode (where its n_eff meets the background index).
+struct CutoffSpec {
+  int mode = 0;                   ///< 1-based position at from_um
+  std::optional<double> from_um;
+  double to_um = 0;
+  std::string where;
+};
+
 struct BendSpec {
   double radius_um = 0;
   double direction_deg = 0;
@@ -64,6 +72,7 @@ struct CaseSpec {
   BoundarySpec walls;
   PmlSpec pml;
   std::optional<BendSpec> bend;
+  std::optional<CutoffSpec> cutoff;
   SolveSpec solve;
 
   const MaterialSpec* find_material(const std::string& name) const;

@@ -19,6 +19,13 @@ constexpr std::array kKeys = {
             "First wavelength of an evenly spaced sweep."},
     CaseKey{"sweep", "to_um", K::number, "µm", "required", "", B::positive,
             "Last wavelength of the sweep."},
+    CaseKey{"cutoff", "mode", K::integer, "", "required", "", B::positive,
+            "Mode whose cutoff wavelength is searched (bracketing search, not a sweep): its position "
+            "(1 = highest n_eff) at from_um, where it must be guided."},
+    CaseKey{"cutoff", "from_um", K::number, "µm", "first wavelength", "", B::positive,
+            "Start of the search."},
+    CaseKey{"cutoff", "to_um", K::number, "µm", "required", "", B::positive,
+            "Search no further than this wavelength."},
     CaseKey{"sweep", "points", K::integer, "", "required", "", B::positive,
             "Number of wavelengths, ends included (at least 3 for dispersion, 4 for its slope)."},
 

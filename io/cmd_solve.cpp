@@ -129,6 +129,11 @@ int run_solve(const Args& args) {
     write_pvd(pvd, out.staging() / "modes.pvd");
   }
   for (const auto& z : zeros) run.zero_dispersion.push_back({z.track, z.wavelength_um, z.slope_ps_per_nm2_km});
+  if (c.cutoff) {
+    progress.update("cutoff search");
+    const auto cr = case_cutoff(c, mesh, c.cutoff->mode - 1, c.cutoff->from_um.value_or(c.wavelengths_um.front()), c.cutoff->to_um);
+    run.cutoff = RunResult::CutoffRow{c.cutoff->mode, std::string(to_string(cr.status)), cr.cutoff_wavelength_um, cr.n_solves};
+  }
   run.mesh_s = report.seconds;
   run.total_s = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
   write_text_file(out.staging() / "modes.json", modes_json(run));
@@ -137,6 +142,10 @@ int run_solve(const Args& args) {
   out.commit();
   progress.note("wrote " + out_dir.string());
 
+  if (!cl.has("quiet") && run.cutoff) {
+    std::printf("cutoff of mode %d: %.6f um (%s, %d solves)\n\n", run.cutoff->mode, run.cutoff->wavelength_um,
+                run.cutoff->status.c_str(), run.cutoff->n_solves);
+  }
   if (!cl.has("quiet") && sweep) {
     std::printf("%s", sweep_csv(sols, tracks).c_str());
     for (const auto& z : zeros) {

@@ -70,6 +70,10 @@ std::string modes_json(const RunResult& r) {
     }
     j.end_array();
   }
+  if (r.cutoff) {
+    j.key("cutoff").begin_object().key("mode").value(r.cutoff->mode).key("status").value(r.cutoff->status);
+    j.key("wavelength_um").value(r.cutoff->wavelength_um).key("solves").value(r.cutoff->n_solves).end_object();
+  }
   j.key("timing_s").begin_object().key("mesh").value(r.mesh_s).key("assembly").value(r.assembly_s)
       .key("factorization").value(r.factorization_s).key("eigensolve").value(r.eigensolve_s)
       .key("total").value(r.total_s).end_object();

@@ -3,6 +3,7 @@
 #pragma once
 
 #include <filesystem>
+#include <optional>
 #include <string>
 #include <utility>
 #include <vector>
@@ -44,7 +45,14 @@ struct RunResult {
     int track = 0;
     double wavelength_um = 0, slope_ps_per_nm2_km = 0;
   };
-  std::vector<ZeroDispersionRow> zero_dispersion;  ///< sweeps: where D of a tracked mode crosses zero
+  std::vector<ZeroDispersionRow> zero_dispersion;
+  struct CutoffRow {
+    int mode = 0;
+    std::string status;
+    double wavelength_um = 0;
+    int n_solves = 0;
+  };
+  std::optional<CutoffRow> cutoff;  ///< [cutoff] cases  ///< sweeps: where D of a tracked mode crosses zero
   double mesh_s = 0, assembly_s = 0, factorization_s = 0, eigensolve_s = 0, total_s = 0;
 };
 
