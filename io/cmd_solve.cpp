@@ -136,6 +136,7 @@ int run_solve(const Args& args) {
   }
   run.mesh_s = report.seconds;
   run.total_s = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+  write_vtu(mesh, mesh_cell_arrays(c, mesh), out.staging() / "mesh.vtu");
   write_text_file(out.staging() / "modes.json", modes_json(run));
   write_text_file(out.staging() / "modes.csv", modes_csv(run));
   write_report_html(run, report_inputs, out.staging() / "report.html");

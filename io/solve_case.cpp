@@ -423,6 +423,22 @@ CaseSolution solve_case(const CaseSpec& c, const Mesh& mesh, Progress* progress)
   return std::move(solve_sweep(single, mesh, progress).front());
 }
 
+std::vector<VtkArray> mesh_cell_arrays(const CaseSpec& c, const Mesh& mesh) {
+  VtkArray material{"material", 1, {}, true};
+  VtkArray index{"index", 1, {}, true};
+  for (int t = 0; t < mesh.n_triangles(); ++t) {
+    const std::string& name = mesh.regions[mesh.triangle_region[t]].material;
+    double id = -1;
+    for (std::size_t k = 0; k < c.materials.size(); ++k) {
+      if (c.materials[k].name == name) id = static_cast<double>(k);
+    }
+    material.values.push_back(id);
+    const MaterialSpec* mat = c.find_material(name);
+    index.values.push_back(mat ? mat->max_index(c.wavelength_um) : std::nan(""));
+  }
+  return {material, index};
+}
+
 std::vector<VtkArray> mode_field_arrays(const CaseSpec& c, const Mesh& mesh, const SolvedMode& m) {
   assert(m.fields);
   const std::size_t n = mesh.nodes.size();
@@ -441,12 +457,14 @@ std::vector<VtkArray> mode_field_arrays(const CaseSpec& c, const Mesh& mesh, con
     e2.values.push_back(e.squaredNorm());
     sz.values.push_back(m.fields->s_z[i]);
   }
-  VtkArray index{"index", 1, {}, true};
-  for (int t = 0; t < mesh.n_triangles(); ++t) {
-    const MaterialSpec* mat = c.find_material(mesh.regions[mesh.triangle_region[t]].material);
-    index.values.push_back(mat ? mat->max_index(c.wavelength_um) : std::nan(""));
+  VtkArray e_abs{"E_abs", 1, {}, false}, h_abs{"H_abs", 1, {}, false};
+  for (std::size_t i = 0; i < n; ++i) {
+    e_abs.values.push_back(m.fields->e[i].norm());
+    h_abs.values.push_back(m.fields->h[i].norm());
   }
-  return {e_re, e_im, h_re, h_im, e2, sz, index};
+  std::vector<VtkArray> arrays = {e_re, e_im, h_re, h_im, e_abs, h_abs, e2, sz};
+  for (auto& a : mesh_cell_arrays(c, mesh)) arrays.push_back(std::move(a));
+  return arrays;  // the last array is "index" (io/cmd_solve.cpp relies on it)
 }
 
 }  // namespace cladwise::io

@@ -67,7 +67,12 @@ CaseSolution solve_case(const CaseSpec& c, const Mesh& mesh, Progress* progress 
 /// Solves the case at every wavelength of c.wavelengths_um on one mesh and one solver.
 std::vector<CaseSolution> solve_sweep(const CaseSpec& c, const Mesh& mesh, Progress* progress = nullptr);
 
-/// Point data E_re, E_im, H_re, H_im (3 components), E_abs2, S_z and cell data index.
+/// Cell data "material" (position of the region's material in the case's [materials], in file
+/// order) and "index" (its largest refractive index at the case's wavelength).
+std::vector<VtkArray> mesh_cell_arrays(const CaseSpec& c, const Mesh& mesh);
+
+/// Point data E_re, E_im, H_re, H_im (3 components), E_abs, H_abs, E_abs2, S_z and cell data
+/// material and index (last).
 std::vector<VtkArray> mode_field_arrays(const CaseSpec& c, const Mesh& mesh, const SolvedMode& m);
 
 }  // namespace cladwise::io

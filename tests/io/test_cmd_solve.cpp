@@ -119,9 +119,9 @@ TEST(SolveCommand, WritesTheResultsContractForTheEllipticalCoreCase) {
   ASSERT_EQ(again.status, 0) << again.err;
   int entries = 0;
   for ([[maybe_unused]] const auto& e : fs::directory_iterator(out)) ++entries;
-  // modes.json, modes.csv, modes.pvd, report.html, mesh_index.png, and per mode a .vtu with an
-  // intensity and a polarisation picture.
-  EXPECT_EQ(entries, 11);
+  // modes.json, modes.csv, modes.pvd, report.html, mesh.vtu, mesh_index.png, and per mode a
+  // .vtu with an intensity and a polarisation picture.
+  EXPECT_EQ(entries, 12);
   for (const auto& e : fs::directory_iterator(out.parent_path())) {
     EXPECT_EQ(e.path().filename().string().find(out.filename().string() + ".partial"), std::string::npos);
   }
