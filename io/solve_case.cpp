@@ -193,7 +193,8 @@ LosslessSolve run_lossless_solver(const CaseSpec& c, const Mesh& mesh, Progress*
 
 namespace {
 
-CaseSolution postprocess_lossless(const CaseSpec& c, const Mesh& mesh, const ModeSolver& solver,
+CaseSolution postprocess_lossless(const CaseSpec& c, const Mesh& mesh, const MeshLocator& locator,
+                                  const ModeSolver& solver,
                                   const SolveResult& result, Progress* progress) {
   CaseSolution out;
   out.wavelength_um = c.wavelength_um;
@@ -203,7 +204,6 @@ CaseSolution postprocess_lossless(const CaseSpec& c, const Mesh& mesh, const Mod
   out.status = result.status;
   // Metrics integrate over the whole cross-section; a symmetry cut would need the mirror images.
   const bool full_section = c.import || c.geometry.symmetry == SymmetryCut::none;
-  const MeshLocator locator(mesh);
   LabelOptions label_options;
   if (const auto core = circular_core(c)) {
     label_options.centre = core->first;
@@ -386,6 +386,7 @@ std::vector<CaseSolution> solve_sweep(const CaseSpec& c, const Mesh& mesh, Progr
   // once; each point reassembles and refactorises on the same pattern.
   std::unique_ptr<ModeSolver> real;
   std::unique_ptr<ComplexModeSolver> leaky;
+  std::unique_ptr<MeshLocator> locator;
   for (std::size_t i = 0; i < c.wavelengths_um.size(); ++i) {
     CaseSpec ci = c;
     ci.wavelength_um = c.wavelengths_um[i];
@@ -407,7 +408,8 @@ std::vector<CaseSolution> solve_sweep(const CaseSpec& c, const Mesh& mesh, Progr
         real->set_wavelength(ci.wavelength_um, p.region_materials);
       }
       const SolveResult r = solve_lossless_point(ci, *real, progress);
-      points.push_back(postprocess_lossless(ci, mesh, *real, r, progress));
+      if (!locator) locator = std::make_unique<MeshLocator>(mesh);  // once per mesh, not per point
+      points.push_back(postprocess_lossless(ci, mesh, *locator, *real, r, progress));
       // The tt block of B (∫ μ⁻¹ N_i·N_j) does not depend on the wavelength: it measures the
       // overlap of transverse fields between points for mode tracking.
       const int ne = real->dof_map().n_edge_dofs();

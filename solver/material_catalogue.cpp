@@ -1,6 +1,6 @@
 // The built-in material catalogue. Every coefficient below is copied from the source named beside
 // it, in the units that source uses; the provenance of each (confirmed / secondary) follows
-// /work/shared/docs/checks.md §1 and is repeated in docs/materials.md.
+// ../shared/docs/checks.md §1 and is repeated in docs/materials.md.
 #include "solver/material_catalogue.hpp"
 
 #include <functional>

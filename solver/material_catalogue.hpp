@@ -1,7 +1,7 @@
 // Material catalogue: the built-in dispersive media, each a published fit (or table) with its
 // validity range, as DispersionModel objects (solver/dispersion_model.hpp). Sources, coefficients
 // and status are listed in docs/materials.md; the check values each model reproduces are tested in
-// tests/solver/test_material_catalogue.cpp against /work/shared/docs/checks.md §1.
+// tests/solver/test_material_catalogue.cpp against ../shared/docs/checks.md §1.
 //
 // Convention: every model takes the VACUUM wavelength in µm and returns the index used as absolute,
 // with the published coefficients unaltered (no air correction; see dispersion_model.hpp).

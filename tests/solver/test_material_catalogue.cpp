@@ -1,5 +1,5 @@
 // Material catalogue (solver/material_catalogue.hpp) against each source's own check values as
-// collected in /work/shared/docs/checks.md §1. Those values are "computed from the formula" from
+// collected in ../shared/docs/checks.md §1. Those values are "computed from the formula" from
 // the published coefficients (checks.md: 40-digit arithmetic, rounded to the digits shown); the
 // test requires agreement to half a unit in the last digit given. Tabulated values (Li 1980) are
 // published numbers. The convention of the whole catalogue (published fits used as they are, λ in

@@ -1,6 +1,6 @@
 // Step-index fibre modes: cutoffs, mode sets, weak-guidance limits and published reference values.
 // Reference values carry their source beside them; "computed from the formula" values come from
-// /work/shared/docs/checks.md §8 and are recomputed independently in test_step_index_exact.cpp.
+// ../shared/docs/checks.md §8 and are recomputed independently in test_step_index_exact.cpp.
 #include <gtest/gtest.h>
 
 #include <boost/math/special_functions/bessel.hpp>
