@@ -8,7 +8,7 @@ What it computes
     This is the benchmark of T. P. White et al., "Multipole method for microstructured optical
     fibers. I. Formulation", JOSA B 19, 2322-2330 (2002), and B. T. Kuhlmey et al., "... II.
     Implementation and results", JOSA B 19, 2331-2340 (2002). The value quoted from them (via a
-    thesis, docs: /work/shared/docs/checks.md section 3) is 1.445395345 + 3.150e-8 i.
+    thesis; ../shared/docs/checks.md section 3) is 1.445395345 + 3.150e-8 i.
     The script is a diagnostic written from Maxwell's equations; it shares no code with the C++
     finite-element solver and uses only the Python standard library and mpmath.
 
