@@ -144,8 +144,12 @@ void check_status(EigenStatus status, Progress* progress) {
 
 namespace {
 
-SolveResult solve_lossless_point(const CaseSpec& c, ModeSolver& solver, Progress* progress) {
+SolveResult solve_lossless_point(const CaseSpec& c, ModeSolver& solver, Progress* progress,
+                                 const std::vector<Mode>* previous = nullptr) {
   SolveRequest request;
+  if (previous) {
+    for (const Mode& m : *previous) request.start_vectors.push_back(m.eigenvector);
+  }
   request.n_modes = c.solve.n_modes;
   request.n_target = c.solve.target_index;
   request.all_guided = c.solve.all_guided;
@@ -213,6 +217,7 @@ CaseSolution postprocess_lossless(const CaseSpec& c, const Mesh& mesh, const Mes
   metric_options.n2_m2_per_w = c.solve.nonlinear_index_m2_per_w;
   metric_options.locator = &locator;
   std::vector<ModeMetrics> all_metrics;
+  const std::vector<double> n_group = group_indices(solver, result.modes, deps_dk0);
   for (std::size_t i = 0; i < result.modes.size(); ++i) {
     if (progress) progress->update("mode metrics", static_cast<double>(i) / result.modes.size());
     SolvedMode sm;
@@ -221,7 +226,7 @@ CaseSolution postprocess_lossless(const CaseSpec& c, const Mesh& mesh, const Mes
     const ModeFieldEvaluator fields(solver.problem(), solver.dof_map(), sm.mode);
     sm.fields = fields.at_nodes();
     sm.metrics.push_back({"beta_per_um", sm.mode.beta});
-    sm.metrics.push_back({"n_group", group_index(solver, sm.mode, deps_dk0)});
+    sm.metrics.push_back({"n_group", n_group[i]});
     if (full_section) {
       sm.label = label_mode(fields, locator, label_options).label;
       const ModeMetrics mm = mode_metrics(fields, solver.problem(), solver.dof_map(), sm.mode, metric_options);
@@ -387,6 +392,7 @@ std::vector<CaseSolution> solve_sweep(const CaseSpec& c, const Mesh& mesh, Progr
   std::unique_ptr<ModeSolver> real;
   std::unique_ptr<ComplexModeSolver> leaky;
   std::unique_ptr<MeshLocator> locator;
+  std::vector<Mode> previous_modes;
   for (std::size_t i = 0; i < c.wavelengths_um.size(); ++i) {
     CaseSpec ci = c;
     ci.wavelength_um = c.wavelengths_um[i];
@@ -407,7 +413,9 @@ std::vector<CaseSolution> solve_sweep(const CaseSpec& c, const Mesh& mesh, Progr
       } else {
         real->set_wavelength(ci.wavelength_um, p.region_materials);
       }
-      const SolveResult r = solve_lossless_point(ci, *real, progress);
+      // Warm start from the previous point's modes: same unknowns, nearby eigenvectors.
+      const SolveResult r = solve_lossless_point(ci, *real, progress, previous_modes.empty() ? nullptr : &previous_modes);
+      previous_modes = r.modes;
       if (!locator) locator = std::make_unique<MeshLocator>(mesh);  // once per mesh, not per point
       points.push_back(postprocess_lossless(ci, mesh, *locator, *real, r, progress));
       // The tt block of B (∫ μ⁻¹ N_i·N_j) does not depend on the wavelength: it measures the

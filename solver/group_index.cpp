@@ -1,5 +1,6 @@
 #include "solver/group_index.hpp"
 
+#include <algorithm>
 #include <cassert>
 #include <cmath>
 #include <numbers>
@@ -10,15 +11,74 @@
 
 namespace cladwise {
 
-double group_index(const ModeSolver& solver, const Mode& mode,
-                   const std::vector<std::array<double, 3>>& deps_dk0) {
+namespace {
+
+constexpr int kChunk = 256;  // elements per partial sum; fixed so results do not depend on threads
+
+/// Quadratic forms of every mode with the ε-mass blocks, element by element (no global matrix):
+/// per mode, xᵀT_A[ε]x, xᵀT_A[dε/dk0]x, xᵀT_B[ε]x, xᵀT_B[dε/dk0]x. The element blocks follow
+/// from the kernel at k0 = 0 and 1: A_e(1) = S_e − T_A,e[ε], so T_A,e = A_e(0) − A_e(1).
+template <int Order>
+std::vector<std::array<double, 4>> mass_forms(const DofMap& dofs,
+                                              const std::vector<MaterialTensors<double>>& eps,
+                                              const std::vector<MaterialTensors<double>>& deps,
+                                              const std::vector<const Eigen::VectorXd*>& x) {
+  using Em = WaveguideElementMatrices<double, Order>;
+  constexpr int nt = Em::n_t, nz = Em::n_z;
+  const Mesh& mesh = dofs.mesh();
+  const QuadratureRule& rule = triangle_rule(kernel_quadrature_degree(Order));
+  const int n_t = mesh.n_triangles(), n_chunks = (n_t + kChunk - 1) / kChunk;
+  const std::size_t n_modes = x.size();
+  std::vector<std::vector<std::array<double, 4>>> partial(n_chunks, std::vector<std::array<double, 4>>(n_modes));
+#pragma omp parallel for schedule(dynamic)
+  for (int c = 0; c < n_chunks; ++c) {
+    int index[nt + nz];
+    double sign[nt + nz];
+    for (int t = c * kChunk; t < std::min(n_t, (c + 1) * kChunk); ++t) {
+      const ElementGeometry g = element_geometry(mesh, t);
+      const int r = mesh.triangle_region[t];
+      const Em e0 = waveguide_element_matrices<double, Order>(g, eps[r], 0.0, rule);
+      const Em e1 = waveguide_element_matrices<double, Order>(g, eps[r], 1.0, rule);
+      const Em ed = waveguide_element_matrices<double, Order>(g, deps[r], 1.0, rule);
+      dofs.element_dofs(t, index, sign);
+      for (std::size_t m = 0; m < n_modes; ++m) {
+        Eigen::Matrix<double, nt, 1> xt;
+        Eigen::Matrix<double, nz, 1> xz;
+        for (int i = 0; i < nt; ++i) xt[i] = index[i] < 0 ? 0.0 : sign[i] * (*x[m])[index[i]];
+        for (int i = 0; i < nz; ++i) xz[i] = index[nt + i] < 0 ? 0.0 : (*x[m])[index[nt + i]];
+        // A has only the tt block; B's tt and tz blocks hold no ε, so T_B lives in the zz block.
+        auto& acc = partial[c][m];
+        acc[0] += xt.dot((e0.a_tt - e1.a_tt) * xt);
+        acc[1] += xt.dot((e0.a_tt - ed.a_tt) * xt);
+        acc[2] += xz.dot((e0.b_zz - e1.b_zz) * xz);
+        acc[3] += xz.dot((e0.b_zz - ed.b_zz) * xz);
+      }
+    }
+  }
+  std::vector<std::array<double, 4>> out(n_modes, {0.0, 0.0, 0.0, 0.0});
+  for (int c = 0; c < n_chunks; ++c) {
+    for (std::size_t m = 0; m < n_modes; ++m) {
+      for (int k = 0; k < 4; ++k) out[m][k] += partial[c][m][k];
+    }
+  }
+  return out;
+}
+
+}  // namespace
+
+std::vector<double> group_indices(const ModeSolver& solver, const std::vector<Mode>& modes,
+                                  const std::vector<std::array<double, 3>>& deps_dk0) {
   const ModeProblem& p = solver.problem();
   const std::size_t n_regions = p.region_materials.size();
   if (!deps_dk0.empty() && deps_dk0.size() != n_regions) {
     throw std::logic_error("group_index: one dε/dk0 per region");
   }
-  if (mode.eigenvector.size() != solver.n_dofs()) {
-    throw InputError("group_index", "the mode was not solved on this solver's unknowns");
+  std::vector<const Eigen::VectorXd*> x;
+  for (const Mode& mode : modes) {
+    if (mode.eigenvector.size() != solver.n_dofs()) {
+      throw InputError("group_index", "the mode was not solved on this solver's unknowns");
+    }
+    x.push_back(&mode.eigenvector);
   }
   const double k0 = solver.k0();
   std::vector<MaterialTensors<double>> eps, deps;
@@ -30,20 +90,24 @@ double group_index(const ModeSolver& solver, const Mode& mode,
     d.eps_zz = de[2];
     deps.push_back(d);
   }
-  // T[ε] from the pencil at k0 = 0 and k0 = 1: A(1) = S − T_A[ε], so T_A[ε] = A(0) − A(1).
-  const auto m0 = assemble_waveguide<double>(solver.dof_map(), eps, 0.0);
-  const auto m1 = assemble_waveguide<double>(solver.dof_map(), eps, 1.0);
-  const auto md = assemble_waveguide<double>(solver.dof_map(), deps, 1.0);
-  const Eigen::VectorXd& x = mode.eigenvector;
-  const double lambda = -mode.beta * mode.beta;
-  auto quad = [&x](const Eigen::SparseMatrix<double>& m) { return x.dot(m * x); };
-  const double ta = quad(m0.a) - quad(m1.a), tad = quad(m0.a) - quad(md.a);
-  const double tb = quad(m0.b) - quad(m1.b), tbd = quad(m0.b) - quad(md.b);
-  const double a_prime = -2.0 * k0 * ta - k0 * k0 * tad;
-  const double b_prime = -2.0 * k0 * tb - k0 * k0 * tbd;
-  const double xbx = quad(solver.matrices().b);
-  const double dlambda_dk0 = (a_prime - lambda * b_prime) / xbx;
-  return -dlambda_dk0 / (2.0 * mode.beta);
+  const auto forms = solver.dof_map().order() == 2 ? mass_forms<2>(solver.dof_map(), eps, deps, x)
+                                                   : mass_forms<1>(solver.dof_map(), eps, deps, x);
+  std::vector<double> out;
+  for (std::size_t m = 0; m < modes.size(); ++m) {
+    const auto [ta, tad, tb, tbd] = forms[m];
+    const double lambda = -modes[m].beta * modes[m].beta;
+    const double a_prime = -2.0 * k0 * ta - k0 * k0 * tad;
+    const double b_prime = -2.0 * k0 * tb - k0 * k0 * tbd;
+    const double xbx = x[m]->dot(solver.matrices().b * *x[m]);
+    const double dlambda_dk0 = (a_prime - lambda * b_prime) / xbx;
+    out.push_back(-dlambda_dk0 / (2.0 * modes[m].beta));
+  }
+  return out;
+}
+
+double group_index(const ModeSolver& solver, const Mode& mode,
+                   const std::vector<std::array<double, 3>>& deps_dk0) {
+  return group_indices(solver, {mode}, deps_dk0).front();
 }
 
 double permittivity_derivative_dk0(double n, double dn_dlambda_per_um, double wavelength_um) {

@@ -27,6 +27,11 @@ namespace cladwise {
 double group_index(const ModeSolver& solver, const Mode& mode,
                    const std::vector<std::array<double, 3>>& deps_dk0 = {});
 
+/// group_index() of several modes of the same solve in one pass over the elements (the element
+/// blocks are computed once and applied to every eigenvector; no global matrix is assembled).
+std::vector<double> group_indices(const ModeSolver& solver, const std::vector<Mode>& modes,
+                                  const std::vector<std::array<double, 3>>& deps_dk0 = {});
+
 /// dε/dk0 (µm) of a permittivity ε = n² from n and dn/dλ at vacuum wavelength λ (µm):
 /// dε/dk0 = 2n · dn/dλ · dλ/dk0 with dλ/dk0 = −λ²/(2π).
 double permittivity_derivative_dk0(double n, double dn_dlambda_per_um, double wavelength_um);

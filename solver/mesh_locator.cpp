@@ -6,6 +6,7 @@
 
 #include "solver/assembly.hpp"
 #include "solver/element_kernels.hpp"
+#include "solver/lagrange_triangle.hpp"
 
 namespace cladwise {
 
@@ -50,19 +51,32 @@ MeshLocator::MeshLocator(const Mesh& mesh, double buckets_per_triangle) : mesh_(
 
 bool MeshLocator::inside(int t, const Eigen::Vector2d& x, Eigen::Vector2d& xi) const {
   const ElementGeometry g = element_geometry(*mesh_, t);
-  xi = Eigen::Vector2d(1.0 / 3.0, 1.0 / 3.0);
-  const int iterations = g.n_nodes == 6 ? 20 : 1;
-  for (int it = 0; it < iterations; ++it) {  // Newton on x(ξ) = x
-    const MappedPoint m = map_point(g, xi);
-    const Eigen::Vector2d step = m.jacobian.lu().solve(m.x - x);
+  // Barycentric coordinates in the straight triangle of the three vertices: exact for 3-node
+  // triangles, and a cheap rejection test and Newton start for curved 6-node ones, whose edges
+  // bulge from the chords by a small fraction of the element (the margin below).
+  const Eigen::Vector2d a = g.x.col(0), e1 = g.x.col(1) - a, e2 = g.x.col(2) - a;
+  const double det = e1.x() * e2.y() - e1.y() * e2.x();
+  if (!(std::abs(det) > 0.0)) return false;
+  const Eigen::Vector2d d = x - a;
+  xi = Eigen::Vector2d((d.x() * e2.y() - d.y() * e2.x()) / det, (e1.x() * d.y() - e1.y() * d.x()) / det);
+  const double tol = 1e-10;
+  auto in_reference = [tol](const Eigen::Vector2d& s, double margin) {
+    return s.x() >= -tol - margin && s.y() >= -tol - margin && s.x() + s.y() <= 1.0 + tol + margin;
+  };
+  if (g.n_nodes != 6) return in_reference(xi, 0.0);
+  if (!in_reference(xi, 0.25)) return false;
+  for (int it = 0; it < 20; ++it) {  // Newton on x(ξ) = x
+    LagrangeTriangle<2>::Values l;
+    LagrangeTriangle<2>::Gradients dl;
+    LagrangeTriangle<2>::evaluate(xi, l, dl);
+    const Eigen::Matrix2d jacobian = g.x * dl.transpose();
+    const Eigen::Vector2d step = jacobian.inverse() * (g.x * l - x);
     xi -= step;
     if (step.norm() < 1e-14) break;
     if (xi.norm() > 10.0) return false;  // far outside: Newton on a curved map may wander
   }
-  const double tol = 1e-10;
-  if (xi.x() < -tol || xi.y() < -tol || xi.x() + xi.y() > 1.0 + tol) return false;
-  if (g.n_nodes == 6 && (map_point(g, xi).x - x).norm() > 1e-9 * (1.0 + x.norm())) return false;
-  return true;
+  if (!in_reference(xi, 0.0)) return false;
+  return (map_point(g, xi).x - x).norm() <= 1e-9 * (1.0 + x.norm());
 }
 
 std::optional<MeshPoint> MeshLocator::locate(const Point2& p) const {

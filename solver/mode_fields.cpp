@@ -31,8 +31,11 @@ ModeFieldEvaluator::ModeFieldEvaluator(const ModeProblem& problem, const DofMap&
   double power = 0.0;  // W/m² · µm²
   for (int t = 0; t < mesh.n_triangles(); ++t) {
     const ElementGeometry g = element_geometry(mesh, t);
+    double c[kMaxLocalDofs];
+    element_coefficients(dofs, t, mode.eigenvector, c);
     for (int q = 0; q < rule.n_points(); ++q) {
-      power += rule.weights[q] * map_point(g, rule.points[q]).det * raw_at(t, rule.points[q]).s_z();
+      const MappedPoint m = map_point(g, rule.points[q]);
+      power += rule.weights[q] * m.det * raw_from(t, m, rule.points[q], c).s_z();
     }
   }
   raw_power_w_ = power * 1e-12;  // µm² -> m²
@@ -44,13 +47,16 @@ ModeFieldEvaluator::ModeFieldEvaluator(const ModeProblem& problem, const DofMap&
 }
 
 FieldSample ModeFieldEvaluator::raw_at(int t, const Eigen::Vector2d& xi) const {
-  const Mesh& mesh = dofs_->mesh();
   double c[kMaxLocalDofs];
   element_coefficients(*dofs_, t, mode_->eigenvector, c);
-  const MappedPoint m = map_point(element_geometry(mesh, t), xi);
+  return raw_from(t, map_point(element_geometry(dofs_->mesh(), t), xi), xi, c);
+}
+
+FieldSample ModeFieldEvaluator::raw_from(int t, const MappedPoint& m, const Eigen::Vector2d& xi,
+                                         const double* c) const {
   const ElectricField f = element_electric_field(*dofs_, m, xi, c, mode_->beta);
   // Faraday: H = j μ_r⁻¹ (∇×E) / (k0 Z0), μ_r⁻¹ diagonal and constant in the region
-  const Material& mat = problem_->region_materials[mesh.triangle_region[t]];
+  const Material& mat = problem_->region_materials[dofs_->mesh().triangle_region[t]];
   const double z0k0 = k0_ * vacuum_impedance_ohm;
   FieldSample s;
   s.e = f.e;
@@ -64,6 +70,43 @@ FieldSample ModeFieldEvaluator::at_reference(int t, const Eigen::Vector2d& xi) c
   s.e *= scale_;
   s.h *= scale_;
   return s;
+}
+
+void ModeFieldEvaluator::at_reference(int t, const Eigen::Vector2d* xi, int n, FieldSample* out) const {
+  double c[kMaxLocalDofs];
+  element_coefficients(*dofs_, t, mode_->eigenvector, c);
+  const ElementGeometry g = element_geometry(dofs_->mesh(), t);
+  for (int k = 0; k < n; ++k) {
+    out[k] = raw_from(t, map_point(g, xi[k]), xi[k], c);
+    out[k].e *= scale_;
+    out[k].h *= scale_;
+  }
+}
+
+namespace {
+
+template <int Order>
+Eigen::Vector2d edge_interpolant(const MappedPoint& m, const Eigen::Vector2d& xi, const double* c_t) {
+  typename NedelecTriangle<Order>::Values n;
+  typename NedelecTriangle<Order>::Curls curl;
+  edge_basis<Order>(m, xi, n, curl);
+  Eigen::Vector2d e = Eigen::Vector2d::Zero();
+  for (int i = 0; i < NedelecTriangle<Order>::n_functions; ++i) e += c_t[i] * n.col(i);
+  return e;
+}
+
+}  // namespace
+
+void ModeFieldEvaluator::transverse_e_at(int t, const Eigen::Vector2d* xi, int n, Eigen::Vector2cd* out) const {
+  double c[kMaxLocalDofs];
+  element_coefficients(*dofs_, t, mode_->eigenvector, c);
+  const ElementGeometry g = element_geometry(dofs_->mesh(), t);
+  const double s = scale_ / mode_->beta;  // E_t = e_t / β (formulation.md eq. 5)
+  for (int k = 0; k < n; ++k) {
+    const MappedPoint m = map_point(g, xi[k]);
+    const Eigen::Vector2d e = dofs_->order() == 1 ? edge_interpolant<1>(m, xi[k], c) : edge_interpolant<2>(m, xi[k], c);
+    out[k] = (s * e).cast<std::complex<double>>();
+  }
 }
 
 std::optional<FieldSample> ModeFieldEvaluator::at_point(int t, const Point2& x) const {

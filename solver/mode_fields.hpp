@@ -22,6 +22,7 @@
 
 #include "mesh/mesh.hpp"
 #include "solver/dof_map.hpp"
+#include "solver/element_kernels.hpp"
 #include "solver/mode.hpp"
 #include "solver/mode_solver.hpp"
 
@@ -51,6 +52,12 @@ public:
 
   /// Normalised fields inside triangle t at reference coordinates (ξ, η).
   FieldSample at_reference(int t, const Eigen::Vector2d& xi) const;
+  /// at_reference() at n points of one triangle: the element's geometry and coefficients are
+  /// gathered once (the way to sample many points per element, e.g. quadrature rules).
+  void at_reference(int t, const Eigen::Vector2d* xi, int n, FieldSample* out) const;
+  /// The transverse electric field alone (E_x, E_y) at n points of one triangle: the cheap
+  /// evaluation for difference stencils of ∇E_t.
+  void transverse_e_at(int t, const Eigen::Vector2d* xi, int n, Eigen::Vector2cd* out) const;
   /// Normalised fields at a physical point (µm) of triangle t; nullopt if x is not in it.
   std::optional<FieldSample> at_point(int t, const Point2& x) const;
   /// Element-averaged values at every mesh node.
@@ -69,6 +76,8 @@ private:
   double raw_power_w_ = 0.0;
   double scale_ = 1.0;
   FieldSample raw_at(int t, const Eigen::Vector2d& xi) const;
+  /// Fields at points of triangle t from its geometry g and local coefficients c; m: the map at xi.
+  FieldSample raw_from(int t, const MappedPoint& m, const Eigen::Vector2d& xi, const double* c) const;
 };
 
 }  // namespace cladwise

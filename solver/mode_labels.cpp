@@ -120,20 +120,22 @@ ModeLabel label_mode(const ModeFieldEvaluator& fields, const MeshLocator& locato
   // Generic: harmonics of the principal component E_p about the power centroid.
   {
     const Point2 c{shape.centroid.x(), shape.centroid.y()};
-    auto ep_harmonic = [&](double r, int n) {
-      cd sum = 0.0;
+    // Harmonics n in [−n_max, n_max] of E_p on one circle, from one pass over its samples.
+    auto ep_harmonics = [&](double r, int n_lo, int n_hi) {
+      std::vector<cd> h(n_hi - n_lo + 1, 0.0);
       for (int k = 0; k < options.n_angles; ++k) {
         const double phi = 2.0 * kPi * (k + 0.5) / options.n_angles;
         const Eigen::Vector3cd e = e_at(fields, locator, c[0] + r * std::cos(phi), c[1] + r * std::sin(phi));
-        sum += (shape.axis.x() * e.x() + shape.axis.y() * e.y()) * std::polar(1.0 / options.n_angles, -n * phi);
+        const cd ep = shape.axis.x() * e.x() + shape.axis.y() * e.y();
+        for (int n = n_lo; n <= n_hi; ++n) h[n - n_lo] += ep * std::polar(1.0 / options.n_angles, -n * phi);
       }
-      return sum;
+      return h;
     };
     std::vector<double> power(n_max + 1, 0.0);
     for (double rr : {0.5, 1.0, 1.5}) {
+      const std::vector<cd> h = ep_harmonics(rr * shape.rms_radius, -n_max, n_max);
       for (int n = 0; n <= n_max; ++n) {
-        power[n] += std::norm(ep_harmonic(rr * shape.rms_radius, n)) +
-                    (n > 0 ? std::norm(ep_harmonic(rr * shape.rms_radius, -n)) : 0.0);
+        power[n] += std::norm(h[n + n_max]) + (n > 0 ? std::norm(h[n_max - n]) : 0.0);
       }
     }
     int l = 0;
@@ -143,7 +145,7 @@ ModeLabel label_mode(const ModeFieldEvaluator& fields, const MeshLocator& locato
       if (power[n] > power[l]) l = n;
     }
     std::vector<cd> radial;
-    for (int i = 1; i <= 60; ++i) radial.push_back(ep_harmonic(2.0 * shape.rms_radius * i / 60.0, l));
+    for (int i = 1; i <= 60; ++i) radial.push_back(ep_harmonics(2.0 * shape.rms_radius * i / 60.0, l, l)[0]);
     const int m = 1 + sign_changes(radial);
     out.generic_label = pol + (l == 0 && m == 1 ? std::string("fundamental") : lp_name(l, m) + "-like");
     out.azimuthal_order = l;

@@ -9,6 +9,8 @@
 #include <limits>
 #include <memory>
 #include <numbers>
+#include <utility>
+#include <vector>
 
 #include "solver/assembly.hpp"
 #include "solver/element_kernels.hpp"
@@ -108,9 +110,27 @@ std::vector<FieldQuadraturePoint> sample_mode(const ModeFieldEvaluator& fields, 
   // Step of the central differences in reference coordinates: truncation O(h²) only through the
   // curvature of the map, rounding O(ε/h) ≈ 1e-12 relative.
   const double h = 1e-4;
+  // Per element, one batch of the rule's points and (with gradients) one of their four stencil
+  // points, where only E_t is needed.
+  const int nq = rule.n_points();
+  std::vector<Eigen::Vector2d> stencil;
+  if (with_gradients) {
+    for (int k = 0; k < nq; ++k) {
+      for (int j = 0; j < 2; ++j) {
+        Eigen::Vector2d step = Eigen::Vector2d::Zero();
+        step[j] = h;
+        stencil.push_back(rule.points[k] + step);
+        stencil.push_back(rule.points[k] - step);
+      }
+    }
+  }
+  std::vector<FieldSample> f(nq);
+  std::vector<Eigen::Vector2cd> fe(stencil.size());
   for (int t = 0; t < mesh.n_triangles(); ++t) {
     const ElementGeometry g = element_geometry(mesh, t);
-    for (int k = 0; k < rule.n_points(); ++k) {
+    fields.at_reference(t, rule.points.data(), nq, f.data());
+    if (with_gradients) fields.transverse_e_at(t, stencil.data(), static_cast<int>(stencil.size()), fe.data());
+    for (int k = 0; k < nq; ++k) {
       const Eigen::Vector2d& xi = rule.points[k];
       const MappedPoint m = map_point(g, xi);
       FieldQuadraturePoint q;
@@ -118,16 +138,11 @@ std::vector<FieldQuadraturePoint> sample_mode(const ModeFieldEvaluator& fields, 
       q.weight_um2 = rule.weights[k] * m.det;  // dA = det J dξ
       q.triangle = t;
       q.region = mesh.triangle_region[t];
-      q.field = fields.at_reference(t, xi);
+      q.field = f[k];
       if (with_gradients) {
         Eigen::Matrix2cd d_ref;  // ∂E_i/∂ξ_j
         for (int j = 0; j < 2; ++j) {
-          Eigen::Vector2d step = Eigen::Vector2d::Zero();
-          step[j] = h;
-          const FieldSample plus = fields.at_reference(t, xi + step);
-          const FieldSample minus = fields.at_reference(t, xi - step);
-          d_ref(0, j) = (plus.e.x() - minus.e.x()) / (2.0 * h);
-          d_ref(1, j) = (plus.e.y() - minus.e.y()) / (2.0 * h);
+          d_ref.col(j) = (fe[4 * k + 2 * j] - fe[4 * k + 2 * j + 1]) / (2.0 * h);
         }
         // ∇_x f = J⁻ᵀ ∇_ξ f for each component (rows): grad_et = d_ref · J⁻¹
         q.grad_et = d_ref * m.inv_jt.transpose().cast<std::complex<double>>();
@@ -149,23 +164,35 @@ double gaussian_fit_radius_um(const std::vector<FieldQuadraturePoint>& samples,
   if (!(ee > 0.0)) return 0.0;
   // The field's own second moment sets the bracket (for a Gaussian, <r²>|E|² = w²/2).
   const double w_guess = std::sqrt(2.0 * r2_mean / ee);
+  // The samples' weighted field and squared radius, gathered once for the ~60 evaluations below.
+  std::vector<std::complex<double>> we;
+  std::vector<double> wt, r2;
+  we.reserve(samples.size()), wt.reserve(samples.size()), r2.reserve(samples.size());
+  for (const auto& q : samples) {
+    we.push_back(q.weight_um2 * along(q.field, p));
+    wt.push_back(q.weight_um2);
+    r2.push_back((q.x.x() - cx) * (q.x.x() - cx) + (q.x.y() - cy) * (q.x.y() - cy));
+  }
   auto efficiency = [&](double log_w) {
-    const double w = std::exp(log_w);
-    std::complex<double> eg = 0.0;
-    double gg = 0.0;
-    for (const auto& q : samples) {
-      const double r2 = (q.x.x() - cx) * (q.x.x() - cx) + (q.x.y() - cy) * (q.x.y() - cy);
-      const double g = std::exp(-r2 / (w * w));
-      eg += q.weight_um2 * along(q.field, p) * g;
-      gg += q.weight_um2 * g * g;
+    const double inv_w2 = std::exp(-2.0 * log_w);
+    double eg_re = 0.0, eg_im = 0.0, gg = 0.0;
+    for (std::size_t k = 0; k < r2.size(); ++k) {
+      const double g = std::exp(-r2[k] * inv_w2);
+      eg_re += we[k].real() * g;
+      eg_im += we[k].imag() * g;
+      gg += wt[k] * g * g;
     }
-    return std::norm(eg) / (ee * gg);
+    return (eg_re * eg_re + eg_im * eg_im) / (ee * gg);
   };
+  // Golden-section search for the maximum of the overlap in log w down to a bracket of 1e-2, then
+  // successive parabolic interpolation through the best three points: the overlap is smooth and
+  // its maximum flat (quadratic), so the parabola's vertex converges superlinearly; w is only
+  // defined to about sqrt(machine ε) relative by a flat maximum, which the 1e-9 stop reflects.
   double a = std::log(0.2 * w_guess), b = std::log(3.0 * w_guess);
   const double ratio = (std::sqrt(5.0) - 1.0) / 2.0;
   double c = b - ratio * (b - a), d = a + ratio * (b - a);
   double fc = efficiency(c), fd = efficiency(d);
-  for (int it = 0; it < 60 && b - a > 1e-10; ++it) {
+  while (b - a > 1e-2) {
     if (fc > fd) {
       b = d, d = c, fd = fc;
       c = b - ratio * (b - a), fc = efficiency(c);
@@ -174,7 +201,36 @@ double gaussian_fit_radius_um(const std::vector<FieldQuadraturePoint>& samples,
       d = a + ratio * (b - a), fd = efficiency(d);
     }
   }
-  return std::exp(0.5 * (a + b));
+  // Three points around the best one, kept sorted by abscissa.
+  double x0 = c, x1 = 0.5 * (c + d), x2 = d;
+  double f0 = fc, f1 = efficiency(x1), f2 = fd;
+  double best = f1 >= std::max(f0, f2) ? x1 : (f0 > f2 ? x0 : x2);
+  for (int it = 0; it < 20; ++it) {
+    const double d10 = (f1 - f0) / (x1 - x0), d21 = (f2 - f1) / (x2 - x1);
+    const double curvature = (d21 - d10) / (x2 - x0);
+    if (!(curvature < 0.0)) break;  // not concave here: keep the best sample
+    const double x = 0.5 * (x0 + x1) - d10 / (2.0 * curvature);
+    if (!(x > a && x < b)) break;
+    const double fx = efficiency(x);
+    const double step = std::abs(x - best);
+    // Replace the worst of the three by the new point, keeping them sorted.
+    double xs[4] = {x0, x1, x2, x}, fs[4] = {f0, f1, f2, fx};
+    int worst = 0;
+    for (int k = 1; k < 4; ++k) {
+      if (fs[k] < fs[worst]) worst = k;
+    }
+    std::vector<std::pair<double, double>> keep;
+    for (int k = 0; k < 4; ++k) {
+      if (k != worst) keep.push_back({xs[k], fs[k]});
+    }
+    std::sort(keep.begin(), keep.end());
+    x0 = keep[0].first, f0 = keep[0].second;
+    x1 = keep[1].first, f1 = keep[1].second;
+    x2 = keep[2].first, f2 = keep[2].second;
+    best = f1 >= std::max(f0, f2) ? x1 : (f0 > f2 ? x0 : x2);
+    if (step < 1e-9 || x2 - x0 < 1e-12) break;
+  }
+  return std::exp(best);
 }
 
 double nonlinear_coefficient_per_w_km(double n2_m2_per_w, double wavelength_um,

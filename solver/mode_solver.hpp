@@ -54,6 +54,11 @@ struct SolveRequest {
   /// Arnoldi subspace size ncv; 0: automatic, max(2 nev + 1, nev + 20).
   int krylov_dimension = 0;
   int max_restarts = 1000;              ///< implicit restarts before not_converged
+  /// Warm start: eigenvectors of a nearby solve on the same unknowns (e.g. the previous point of
+  /// a wavelength sweep). Arnoldi then starts from their sum plus a small random part instead of
+  /// a random vector. Vectors of another size are ignored. Which modes are returned does not
+  /// change (still the n_modes nearest the target); only the work to converge them.
+  std::vector<Eigen::VectorXd> start_vectors;
 };
 
 enum class EigenStatus {
