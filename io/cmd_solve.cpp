@@ -91,7 +91,7 @@ int run_solve(const Args& args) {
         report_inputs.warnings.push_back(w);
       }
       if (!mode.fields) continue;
-      char name[48];
+      char name[64];
       if (sweep) std::snprintf(name, sizeof name, "p%03zu_mode_%02zu.vtu", p + 1, m + 1);
       else std::snprintf(name, sizeof name, "mode_%02zu.vtu", m + 1);
       CaseSpec cp = c;

@@ -228,8 +228,13 @@ CaseSolution postprocess_lossless(const CaseSpec& c, const Mesh& mesh, const Mes
     sm.metrics.push_back({"beta_per_um", sm.mode.beta});
     sm.metrics.push_back({"n_group", n_group[i]});
     if (full_section) {
+      // One set of quadrature samples for the label and the metrics.
+      const std::vector<FieldQuadraturePoint> samples = sample_mode(fields, mesh, mesh.order, true);
+      label_options.samples = &samples;
+      metric_options.samples = &samples;
       sm.label = label_mode(fields, locator, label_options).label;
       const ModeMetrics mm = mode_metrics(fields, solver.problem(), solver.dof_map(), sm.mode, metric_options);
+      label_options.samples = metric_options.samples = nullptr;
       append_metrics(sm.metrics, mm);
       all_metrics.push_back(mm);
     }

@@ -180,4 +180,39 @@ WaveguideElementMatrices<Scalar, Order> waveguide_element_matrices(
       k0, rule);
 }
 
+/// The permittivity-weighted mass blocks alone, the part of the pencil that carries k0:
+///   T_tt = ∫ N_i·ε_t N_j dΩ,  T_zz = ∫ ε_zz L_i L_j dΩ,
+/// so that A_tt = S_tt − k0² T_tt and B_zz = B_zz,0 − k0² T_zz (eqs. 9, 12). Used by the
+/// group-index perturbation (solver/group_index.hpp) without the curl and gradient terms.
+template <int Order>
+struct PermittivityMassMatrices {
+  static constexpr int n_t = NedelecTriangle<Order>::n_functions;
+  static constexpr int n_z = LagrangeTriangle<Order>::n_functions;
+  Eigen::Matrix<double, n_t, n_t> t_tt;
+  Eigen::Matrix<double, n_z, n_z> t_zz;
+};
+
+template <int Order>
+PermittivityMassMatrices<Order> permittivity_mass_matrices(const ElementGeometry& geometry,
+                                                           const Eigen::Matrix2d& eps_t, double eps_zz,
+                                                           const QuadratureRule& rule) {
+  PermittivityMassMatrices<Order> m;
+  m.t_tt.setZero();
+  m.t_zz.setZero();
+  typename NedelecTriangle<Order>::Values n;
+  typename NedelecTriangle<Order>::Curls curl;
+  typename LagrangeTriangle<Order>::Values l;
+  typename LagrangeTriangle<Order>::Gradients grad_l;
+  for (int q = 0; q < rule.n_points(); ++q) {
+    const Eigen::Vector2d& xi = rule.points[q];
+    const MappedPoint mp = map_point(geometry, xi);
+    edge_basis<Order>(mp, xi, n, curl);
+    LagrangeTriangle<Order>::evaluate(xi, l, grad_l);
+    const double dx = rule.weights[q] * mp.det;
+    m.t_tt.noalias() += dx * (n.transpose() * (eps_t * n));
+    m.t_zz.noalias() += (dx * eps_zz) * (l * l.transpose());
+  }
+  return m;
+}
+
 }  // namespace cladwise

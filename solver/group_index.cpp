@@ -16,15 +16,14 @@ namespace {
 constexpr int kChunk = 256;  // elements per partial sum; fixed so results do not depend on threads
 
 /// Quadratic forms of every mode with the ε-mass blocks, element by element (no global matrix):
-/// per mode, xᵀT_A[ε]x, xᵀT_A[dε/dk0]x, xᵀT_B[ε]x, xᵀT_B[dε/dk0]x. The element blocks follow
-/// from the kernel at k0 = 0 and 1: A_e(1) = S_e − T_A,e[ε], so T_A,e = A_e(0) − A_e(1).
+/// per mode, xᵀT_A[ε]x, xᵀT_A[dε/dk0]x, xᵀT_B[ε]x, xᵀT_B[dε/dk0]x. T_A is the edge block of
+/// the ε-mass, T_B its nodal (zz) block; the other blocks of A and B carry no ε.
 template <int Order>
-std::vector<std::array<double, 4>> mass_forms(const DofMap& dofs,
-                                              const std::vector<MaterialTensors<double>>& eps,
-                                              const std::vector<MaterialTensors<double>>& deps,
+std::vector<std::array<double, 4>> mass_forms(const DofMap& dofs, const std::vector<Material>& eps,
+                                              const std::vector<std::array<double, 3>>& deps,
                                               const std::vector<const Eigen::VectorXd*>& x) {
-  using Em = WaveguideElementMatrices<double, Order>;
-  constexpr int nt = Em::n_t, nz = Em::n_z;
+  using Tm = PermittivityMassMatrices<Order>;
+  constexpr int nt = Tm::n_t, nz = Tm::n_z;
   const Mesh& mesh = dofs.mesh();
   const QuadratureRule& rule = triangle_rule(kernel_quadrature_degree(Order));
   const int n_t = mesh.n_triangles(), n_chunks = (n_t + kChunk - 1) / kChunk;
@@ -37,21 +36,20 @@ std::vector<std::array<double, 4>> mass_forms(const DofMap& dofs,
     for (int t = c * kChunk; t < std::min(n_t, (c + 1) * kChunk); ++t) {
       const ElementGeometry g = element_geometry(mesh, t);
       const int r = mesh.triangle_region[t];
-      const Em e0 = waveguide_element_matrices<double, Order>(g, eps[r], 0.0, rule);
-      const Em e1 = waveguide_element_matrices<double, Order>(g, eps[r], 1.0, rule);
-      const Em ed = waveguide_element_matrices<double, Order>(g, deps[r], 1.0, rule);
+      const Material& e = eps[r];
+      const Tm te = permittivity_mass_matrices<Order>(g, Eigen::Vector2d(e.eps_xx, e.eps_yy).asDiagonal(), e.eps_zz, rule);
+      const Tm td = permittivity_mass_matrices<Order>(g, Eigen::Vector2d(deps[r][0], deps[r][1]).asDiagonal(), deps[r][2], rule);
       dofs.element_dofs(t, index, sign);
       for (std::size_t m = 0; m < n_modes; ++m) {
         Eigen::Matrix<double, nt, 1> xt;
         Eigen::Matrix<double, nz, 1> xz;
         for (int i = 0; i < nt; ++i) xt[i] = index[i] < 0 ? 0.0 : sign[i] * (*x[m])[index[i]];
         for (int i = 0; i < nz; ++i) xz[i] = index[nt + i] < 0 ? 0.0 : (*x[m])[index[nt + i]];
-        // A has only the tt block; B's tt and tz blocks hold no ε, so T_B lives in the zz block.
         auto& acc = partial[c][m];
-        acc[0] += xt.dot((e0.a_tt - e1.a_tt) * xt);
-        acc[1] += xt.dot((e0.a_tt - ed.a_tt) * xt);
-        acc[2] += xz.dot((e0.b_zz - e1.b_zz) * xz);
-        acc[3] += xz.dot((e0.b_zz - ed.b_zz) * xz);
+        acc[0] += xt.dot(te.t_tt * xt);
+        acc[1] += xt.dot(td.t_tt * xt);
+        acc[2] += xz.dot(te.t_zz * xz);
+        acc[3] += xz.dot(td.t_zz * xz);
       }
     }
   }
@@ -81,17 +79,10 @@ std::vector<double> group_indices(const ModeSolver& solver, const std::vector<Mo
     x.push_back(&mode.eigenvector);
   }
   const double k0 = solver.k0();
-  std::vector<MaterialTensors<double>> eps, deps;
-  for (std::size_t r = 0; r < n_regions; ++r) {
-    eps.push_back(material_tensors(p.region_materials[r]));
-    MaterialTensors<double> d = eps.back();  // same 1/μ, ε replaced by dε/dk0
-    const std::array<double, 3> de = deps_dk0.empty() ? std::array<double, 3>{0, 0, 0} : deps_dk0[r];
-    d.eps_t << de[0], 0.0, 0.0, de[1];
-    d.eps_zz = de[2];
-    deps.push_back(d);
-  }
-  const auto forms = solver.dof_map().order() == 2 ? mass_forms<2>(solver.dof_map(), eps, deps, x)
-                                                   : mass_forms<1>(solver.dof_map(), eps, deps, x);
+  const std::vector<std::array<double, 3>> deps =
+      deps_dk0.empty() ? std::vector<std::array<double, 3>>(n_regions, {0.0, 0.0, 0.0}) : deps_dk0;
+  const auto forms = solver.dof_map().order() == 2 ? mass_forms<2>(solver.dof_map(), p.region_materials, deps, x)
+                                                   : mass_forms<1>(solver.dof_map(), p.region_materials, deps, x);
   std::vector<double> out;
   for (std::size_t m = 0; m < modes.size(); ++m) {
     const auto [ta, tad, tb, tbd] = forms[m];

@@ -74,8 +74,11 @@ struct Shape {
   double rms_radius = 1.0;  // sqrt(<r²>) of |E_t|² about the centroid (µm)
 };
 
-Shape mode_shape(const ModeFieldEvaluator& f, const Mesh& mesh) {
-  const auto s = sample_mode(f, mesh, mesh.order, false);
+Shape mode_shape(const ModeFieldEvaluator& f, const Mesh& mesh,
+                 const std::vector<FieldQuadraturePoint>* samples) {
+  std::vector<FieldQuadraturePoint> own;
+  if (!samples) own = sample_mode(f, mesh, mesh.order, false);
+  const std::vector<FieldQuadraturePoint>& s = samples ? *samples : own;
   Shape out;
   double p = 0.0, et = 0.0;
   Eigen::Vector2d c = Eigen::Vector2d::Zero();
@@ -112,7 +115,7 @@ std::string lp_name(int l, int m) {
 ModeLabel label_mode(const ModeFieldEvaluator& fields, const MeshLocator& locator,
                      const LabelOptions& options) {
   const int n_max = std::max(1, options.n_angles / 2 - 1);
-  const Shape shape = mode_shape(fields, locator.mesh());
+  const Shape shape = mode_shape(fields, locator.mesh(), options.samples);
   ModeLabel out;
   out.polarisation = std::abs(shape.axis.x()) >= std::abs(shape.axis.y()) ? 'x' : 'y';
   const std::string pol = std::string(1, out.polarisation) + "-pol ";

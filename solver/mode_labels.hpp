@@ -23,6 +23,7 @@
 #include "mesh/mesh.hpp"
 #include "solver/dof_map.hpp"
 #include "solver/mesh_locator.hpp"
+#include "solver/mode_metrics.hpp"
 #include "solver/mode.hpp"
 #include "solver/mode_fields.hpp"
 #include "solver/mode_solver.hpp"
@@ -36,6 +37,8 @@ struct LabelOptions {
   std::optional<Point2> centre;
   double core_radius_um = 0.0;
   int n_angles = 64;  ///< samples per circle (resolves harmonics up to n_angles/2)
+  /// This mode's sample_mode() output (with or without gradients), reused if given.
+  const std::vector<FieldQuadraturePoint>* samples = nullptr;
 };
 
 struct ModeLabel {

@@ -248,7 +248,9 @@ ModeMetrics mode_metrics(const ModeProblem& problem, const DofMap& dofs, const M
 ModeMetrics mode_metrics(const ModeFieldEvaluator& fields, const ModeProblem& problem,
                          const DofMap& dofs, const Mode& mode, const MetricOptions& options) {
   const Mesh& mesh = dofs.mesh();
-  const std::vector<FieldQuadraturePoint> s = sample_mode(fields, mesh, dofs.order(), true);
+  std::vector<FieldQuadraturePoint> own_samples;
+  if (!options.samples) own_samples = sample_mode(fields, mesh, dofs.order(), true);
+  const std::vector<FieldQuadraturePoint>& s = options.samples ? *options.samples : own_samples;
   ModeMetrics r;
 
   // Power, centroid, region fractions, E_t moments.

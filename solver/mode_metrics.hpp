@@ -65,6 +65,9 @@ struct MetricOptions {
   bool gaussian_fit = true;         ///< compute the Gaussian-fit MFD (a 1-D search)
   bool intensity_widths = true;     ///< compute the 1/e² line-cut widths (needs point location)
   const MeshLocator* locator = nullptr;  ///< reused if given; else built when needed
+  /// This mode's sample_mode(fields, mesh, order, true), reused if given (e.g. shared with the
+  /// mode's label); else sampled here.
+  const std::vector<FieldQuadraturePoint>* samples = nullptr;
 };
 
 struct RegionPower {

@@ -60,7 +60,7 @@ TEST(FemNedelec, WhitneyInterpolationReproducesConstantField) {
   const Eigen::Vector2d field(0.7, -1.3);
   Eigen::Vector3d dof;
   for (int k = 0; k < 3; ++k) dof[k] = field.dot(g.x.col((k + 1) % 3) - g.x.col(k));
-  for (const Eigen::Vector2d xi : {Eigen::Vector2d(0.2, 0.3), Eigen::Vector2d(0.0, 0.9),
+  for (const Eigen::Vector2d& xi : {Eigen::Vector2d(0.2, 0.3), Eigen::Vector2d(0.0, 0.9),
                                    Eigen::Vector2d(0.6, 0.1)}) {
     const MappedPoint m = map_point(g, xi);
     NedelecTriangle<1>::Values n;
