@@ -7,10 +7,16 @@
 // in x, so y = 0 is a magnetic wall and x = 0 an electric wall; the y-polarised partner has them
 // swapped. The outer edge of the PML is an electric wall.
 //
-// Observed (docs/formulation.md §8.7): the real part converges to 1.44539523 (11k → 141k unknowns
-// move it by 6e-8), 1.1e-7 below the multipole value, so the real part is held to 1.5e-7 here, not
-// the 1e-7 of the issue; the imaginary part is 1.4 % above the multipole value, whose 3.150e-8
-// carries only four figures.
+// Observed: the real part converges to 1.44539523 (11k → 141k unknowns move it by 6e-8), 1.1e-7
+// below the quoted multipole value, and the imaginary part to 3.1945e-8, 1.4 % above it. An
+// independent full-vector multipole computation of the same fibre (tests/benchmark/
+// multipole_six_hole.py: the published method of White et al. implemented here from Maxwell's
+// equations and Graf's addition theorem, sharing no code with the FEM) converges to
+// 1.445395232149 + i 3.194525e-8 at 12–14 harmonics per hole and gives the quoted
+// 1.445395345 + i 3.1506e-8 only at the truncation |m| ≤ 5. So the quoted value is taken to be
+// under-converged: the real part is held to 1.5e-7 of it (not the issue's 1e-7) and the loss to
+// 5 %; the converged multipole value, a number computed in this project, not a published one,
+// is the tight check (3e-8 and 0.3 %).
 #include <gtest/gtest.h>
 
 #include <cmath>
@@ -24,6 +30,8 @@ namespace {
 
 constexpr double kRe = 1.445395345, kIm = 3.150e-8;  // multipole method (White et al. 2002)
 constexpr double kLossDbPerM = 1.186;                 // 8.686 k0 Im n_eff (checks.md §3)
+// Converged multipole value, |m| ≤ 12–14 (computed by tests/benchmark/multipole_six_hole.py).
+constexpr double kReMultipole = 1.445395232149, kImMultipole = 3.194525e-8;
 
 struct PcfRun {
   LeakyMode mode;
@@ -76,6 +84,9 @@ TEST(PmlSixHoleFibre, BothPartnersMatchTheMultipoleMethod) {
     EXPECT_NEAR(r->mode.loss_db_per_m / kLossDbPerM, 1.0, 0.05);
     EXPECT_GT(r->mode.physical_fraction, 0.999);
     EXPECT_LT(r->mode.residual, 1e-12);
+    // Against the converged multipole computation: the mesh error of this mesh (1.2e-8 in Re).
+    EXPECT_NEAR(r->mode.n_eff.real(), kReMultipole, 3e-8);
+    EXPECT_NEAR(r->mode.n_eff_imag / kImMultipole, 1.0, 0.003);
   }
   // The C6v pair is degenerate (checks.md §3); the two symmetry classes see different quarter
   // meshes, so they agree to the discretisation error (2.8e-7 at h_scale 1, 4e-9 at 0.5).
