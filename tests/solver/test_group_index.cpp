@@ -6,7 +6,7 @@
 #include <cmath>
 #include <numbers>
 
-#include "mesh/gmsh_mesher.hpp"
+#include "round_core_fibre.hpp"
 #include "solver/group_index.hpp"
 #include "solver/material.hpp"
 #include "solver/material_catalogue.hpp"
@@ -16,30 +16,10 @@ using namespace cladwise;
 
 namespace {
 
-CrossSection fibre(double wall) {
-  CrossSection s;
-  s.background_material = "cladding";
-  s.outer.radius = wall;
-  RegionSpec core;
-  core.name = "core";
-  core.material = "core";
-  core.shapes = {Shape{Disk{4.1}, {}}};
-  core.mesh_size = 0.5;
-  core.guiding = true;
-  s.regions = {core};
-  s.controls.order = 2;
-  s.controls.default_size = 2.5;
-  return s;
-}
+CrossSection fibre(double wall) { return cladwise::testing::round_core_section(wall); }
 
 ModeProblem problem(const Mesh& mesh, double lambda, double n_clad, double n_core) {
-  ModeProblem p;
-  p.mesh = &mesh;
-  p.region_materials = {isotropic_material(n_clad, "cladding"), isotropic_material(n_core, "core")};
-  p.wavelength_um = lambda;
-  p.order = 2;
-  p.boundary_walls.assign(mesh.boundaries.size(), WallType::electric);
-  return p;
+  return cladwise::testing::round_core_problem(mesh, lambda, n_clad, n_core);
 }
 
 double fem_beta(const Mesh& mesh, double lambda, double n_clad, double n_core) {

@@ -7,9 +7,7 @@
 
 #include <cmath>
 
-#include "mesh/gmsh_mesher.hpp"
-#include "solver/material.hpp"
-#include "solver/mode_solver.hpp"
+#include "round_core_fibre.hpp"
 #include "solver/step_index.hpp"
 
 using namespace cladwise;
@@ -18,30 +16,10 @@ namespace {
 
 constexpr double kCore = 1.4504, kClad = 1.4447, kRadius = 4.1;
 
-CrossSection fibre() {
-  CrossSection s;
-  s.background_material = "cladding";
-  s.outer.radius = 8.0 * kRadius;
-  RegionSpec core;
-  core.name = "core";
-  core.material = "core";
-  core.shapes = {Shape{Disk{kRadius}, {}}};
-  core.mesh_size = 0.5;
-  core.guiding = true;
-  s.regions = {core};
-  s.controls.order = 2;
-  s.controls.default_size = 2.5;
-  return s;
-}
+CrossSection fibre() { return cladwise::testing::round_core_section(8.0 * kRadius, kRadius); }
 
 ModeProblem problem(const Mesh& mesh, double lambda) {
-  ModeProblem p;
-  p.mesh = &mesh;
-  p.region_materials = {isotropic_material(kClad, "cladding"), isotropic_material(kCore, "core")};
-  p.wavelength_um = lambda;
-  p.order = 2;
-  p.boundary_walls.assign(mesh.boundaries.size(), WallType::electric);
-  return p;
+  return cladwise::testing::round_core_problem(mesh, lambda, kClad, kCore);
 }
 
 double exact_n_eff(double lambda, ModeFamily family, int nu) {

@@ -13,7 +13,7 @@
 #include <cmath>
 #include <numbers>
 
-#include "mesh/gmsh_mesher.hpp"
+#include "round_core_fibre.hpp"
 #include "solver/group_index.hpp"
 #include "solver/material.hpp"
 #include "solver/material_catalogue.hpp"
@@ -133,21 +133,7 @@ TEST(StepIndexDispersion, WalledTeCutoffTendsToTheBesselZero) {
 
 namespace {
 
-CrossSection fibre_section(double wall) {
-  CrossSection s;
-  s.background_material = "cladding";
-  s.outer.radius = wall;
-  RegionSpec core;
-  core.name = "core";
-  core.material = "core";
-  core.shapes = {Shape{Disk{4.1}, {}}};
-  core.mesh_size = 0.5;
-  core.guiding = true;
-  s.regions = {core};
-  s.controls.order = 2;
-  s.controls.default_size = 2.5;
-  return s;
-}
+CrossSection fibre_section(double wall) { return cladwise::testing::round_core_section(wall); }
 
 }  // namespace
 
