@@ -101,7 +101,7 @@ void expect_projection_exact(const ElementGeometry& g, const std::function<Eigen
     rhs += rule.weights[q] * m.det * v.transpose() * f(m.x);
   }
   const Eigen::Matrix<double, n, 1> coef = mass.ldlt().solve(rhs);
-  for (const Eigen::Vector2d xi : {Eigen::Vector2d(0.1, 0.2), Eigen::Vector2d(0.7, 0.3),
+  for (const Eigen::Vector2d& xi : {Eigen::Vector2d(0.1, 0.2), Eigen::Vector2d(0.7, 0.3),
                                    Eigen::Vector2d(0.0, 0.0), Eigen::Vector2d(0.3, 0.3)}) {
     const MappedPoint m = map_point(g, xi);
     typename NedelecTriangle<Order>::Values v;
