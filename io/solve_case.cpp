@@ -7,6 +7,7 @@
 
 #include "io/progress.hpp"
 #include "mesh/error.hpp"
+#include "solver/assembly.hpp"
 #include "solver/bend.hpp"
 #include "solver/coupled_cores.hpp"
 #include "solver/group_index.hpp"
@@ -308,6 +309,7 @@ CaseSolution solve_leaky_point(const CaseSpec& c, ComplexModeSolver& solver, Pro
     }
     if (std::isfinite(lm.pml_loss_change)) sm.metrics.push_back({"pml_loss_change", lm.pml_loss_change});
     sm.fields = LeakyModeFieldEvaluator(solver, lm).at_nodes();
+    sm.complex_eigenvector = lm.eigenvector;
     if (lm.loss_unresolved) {
       sm.warnings.push_back("the loss of " + sm.label + " is below what the PML and mesh resolve (it changes with the PML or lies at rounding level); treat it as an upper bound");
     }
@@ -397,6 +399,7 @@ std::vector<CaseSolution> solve_sweep(const CaseSpec& c, const Mesh& mesh, Progr
   std::unique_ptr<ModeSolver> real;
   std::unique_ptr<ComplexModeSolver> leaky;
   std::unique_ptr<MeshLocator> locator;
+  Eigen::SparseMatrix<double> leaky_gram;
   std::vector<Mode> previous_modes;
   for (std::size_t i = 0; i < c.wavelengths_um.size(); ++i) {
     CaseSpec ci = c;
@@ -407,9 +410,18 @@ std::vector<CaseSolution> solve_sweep(const CaseSpec& c, const Mesh& mesh, Progr
     }
     if (complex_path) {
       const LeakyModeProblem p = leaky_mode_problem(ci, mesh);
-      if (!leaky) leaky = std::make_unique<ComplexModeSolver>(p);
-      else leaky->set_wavelength(ci.wavelength_um, p.region_materials);
+      if (!leaky) {
+        leaky = std::make_unique<ComplexModeSolver>(p);
+        // ∫ N_i·N_j over the whole mesh (PML included), the same at every point: the metric of
+        // the transverse-field overlaps that track complex modes along the sweep.
+        const std::vector<MaterialTensors<double>> unit(mesh.regions.size(), material_tensors(Material{}));
+        const int ne = leaky->dof_map().n_edge_dofs();
+        leaky_gram = assemble_waveguide<double>(leaky->dof_map(), unit, 0.0).b.topLeftCorner(ne, ne);
+      } else {
+        leaky->set_wavelength(ci.wavelength_um, p.region_materials);
+      }
       points.push_back(solve_leaky_point(ci, *leaky, progress));
+      points.back().transverse_gram = leaky_gram;
     } else {
       const ModeProblem p = mode_problem(ci, mesh);
       if (!real) {

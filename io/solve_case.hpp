@@ -25,6 +25,7 @@ class Progress;
 
 struct SolvedMode {
   Mode mode;                 ///< real parts: n_eff = Re n_eff, beta = Re β; eigenvector only for lossless modes
+  Eigen::VectorXcd complex_eigenvector;  ///< complex-solver modes: the eigenvector (sweep tracking)
   double n_eff_imag = 0;     ///< |Im n_eff| (docs/conventions.md)
   double loss_db_per_m = 0;
   std::string label;
@@ -36,7 +37,8 @@ struct SolvedMode {
 struct CaseSolution {
   double wavelength_um = 0;
   std::vector<SolvedMode> modes;  ///< descending n_eff
-  /// Lossless points: the wavelength-independent transverse block of B, for mode tracking.
+  /// The wavelength-independent Gram matrix of the edge functions (∫ μ⁻¹ N_i·N_j on lossless
+  /// points, ∫ N_i·N_j on complex-solver points), for mode tracking by transverse-field overlap.
   Eigen::SparseMatrix<double> transverse_gram;
   std::vector<CorePairRow> core_pairs;  ///< neighbouring core pairs of a multicore case
   SolveTiming timing;

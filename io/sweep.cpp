@@ -20,10 +20,21 @@ std::optional<double> metric(const SolvedMode& m, const std::string& key) {
 }
 
 double overlap(const CaseSolution& a, int i, const CaseSolution& b, int j) {
-  const Eigen::VectorXd& x = a.modes[i].mode.eigenvector;
-  const Eigen::VectorXd& y = b.modes[j].mode.eigenvector;
   const Eigen::SparseMatrix<double>& g = b.transverse_gram;
   const int ne = static_cast<int>(g.rows());
+  // Complex-solver modes: |x^H G y| / sqrt(x^H G x · y^H G y), blind to the arbitrary complex
+  // scale of each eigenvector.
+  const Eigen::VectorXcd& xc = a.modes[i].complex_eigenvector;
+  const Eigen::VectorXcd& yc = b.modes[j].complex_eigenvector;
+  if (ne > 0 && xc.size() >= ne && yc.size() >= ne) {
+    const Eigen::VectorXcd xt = xc.head(ne), yt = yc.head(ne);
+    const Eigen::VectorXcd gx = g * xt, gy = g * yt;
+    const double xy = std::abs(xt.dot(gy));  // Eigen's dot conjugates the first factor
+    const double xx = std::abs(xt.dot(gx)), yy = std::abs(yt.dot(gy));
+    return xy / std::sqrt(xx * yy);
+  }
+  const Eigen::VectorXd& x = a.modes[i].mode.eigenvector;
+  const Eigen::VectorXd& y = b.modes[j].mode.eigenvector;
   if (ne == 0 || x.size() < ne || y.size() < ne) {
     // No fields to compare: nearest effective index.
     return 1.0 / (1.0 + 1e6 * std::abs(a.modes[i].mode.n_eff - b.modes[j].mode.n_eff));
