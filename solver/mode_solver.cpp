@@ -291,6 +291,9 @@ SolveResult ModeSolver::solve(const SolveRequest& request) {
   std::vector<Candidate> accepted;
   bool arnoldi_ok = true;
   const long ops_before = f.n_operator_applications();
+  // Keeps the progress line (and its elapsed time) alive through a long Arnoldi run; the total
+  // number of applications is not known in advance, so no fraction.
+  f.set_after_op([this](long) { report("eigensolve", -1.0); });
   for (;;) {
     report("eigensolve", 0.0);
     // A wide subspace: fewer restarts for the same number of operator applications.

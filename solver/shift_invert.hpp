@@ -13,6 +13,8 @@
 #include <Eigen/SparseCore>
 #include <Eigen/UmfPackSupport>
 
+#include <functional>
+
 namespace cladwise {
 
 template <typename ScalarT>
@@ -57,13 +59,17 @@ public:
     bx_.noalias() = (*b_) * x;
     y = lu_.solve(bx_);
     ++n_ops_;
+    if (after_op_) after_op_(n_ops_);
   }
+  /// Called after every application with the running count (progress of long eigen solves).
+  void set_after_op(std::function<void(long)> f) { after_op_ = std::move(f); }
   /// Applications of op since construction (diagnostics: the cost of the eigensolve).
   long n_operator_applications() const { return n_ops_; }
 
 private:
   Eigen::UmfPackLU<SpMat> lu_;
   SpMat k_;
+  std::function<void(long)> after_op_;
   bool analysed_ = false;
   bool valid_ = false;
   double sigma_ = 0.0;
