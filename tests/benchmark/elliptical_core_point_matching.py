@@ -395,6 +395,8 @@ def main():
 
     print("case 2: n 1.4700 / 1.4440, a = 2 um, b = 1 um (cases/elliptical_core.toml)")
     n1, n2, a2, b2 = mp.mpf("1.47"), mp.mpf("1.444"), mp.mpf(2), mp.mpf(1)
+    # FEM values of the case's earlier mesh (0.2 um core elements, 12k unknowns); with the case's
+    # present 0.12 um mesh (27k) the FEM gives B 1.37176e-4, 56k gives 1.37222e-4 (docs/metrics.md).
     fem_x, fem_y = mp.mpf("1.450191256244"), mp.mpf("1.450054191667")
     print("  single centre (Rayleigh series; f = 1.73 um > b): slow")
     print("     N  unknowns        n_x               n_y              B        n_x - FEM   time s")
@@ -512,7 +514,7 @@ if __name__ == "__main__":
 #   three-centre value; not usable on its own. Three centres, least squares: (8, 4, 6) and (12, 6, 8)
 #   agree to 1.1e-9 (n_x) and 4.7e-10 (n_y); dps 50 changes nothing. Best values:
 #   n_x = 1.4501914276, n_y = 1.4500541294 (both +-~2e-9), B = 1.372981e-4 (+-~1e-9 absolute).
-#   FEM (one mesh, 12k unknowns): n_x 1.7e-7 low, n_y 6.2e-8 high, B = 1.37065e-4 is 0.17 % low.
+#   FEM (the case's earlier mesh, 12k unknowns): n_x 1.7e-7 low, n_y 6.2e-8 high, B = 1.37065e-4 is 0.17 % low.
 #   The (16, 8, 10) row is a failure of this method, not a result: the column-normalised basis is
 #   numerically rank-deficient at dps 40 (sigma_min ~ 1e-16 for every beta), so sigma_min(beta) has no
 #   sharp minimum; its n_y happens to agree (1.450054129439) but its n_x wandered 1e-4 off. Square
