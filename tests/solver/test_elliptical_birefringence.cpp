@@ -163,7 +163,9 @@ TEST(EllipticalBirefringence, AgainstPerturbationFormulaAtThreeV) {
     const double b = fem_birefringence(g, 0.05), bf = perturbation_birefringence(g, 0.05);
     EXPECT_GT(b, 0.0);
     EXPECT_NEAR(b / bf, 1.0, 3 * delta_of(g)) << "V = " << v;
-    if (v == 2.0) EXPECT_NEAR(b / 7.05666882e-6, 1.0, 3e-3);
+    if (v == 2.0) {
+      EXPECT_NEAR(b / 7.05666882e-6, 1.0, 3e-3);
+    }
   }
 }
 
