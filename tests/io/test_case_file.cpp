@@ -9,6 +9,7 @@
 #include "io/case_file.hpp"
 #include "io/case_keys.hpp"
 #include "mesh/error.hpp"
+#include "run_cli.hpp"
 
 using namespace cladwise;
 using namespace cladwise::io;
@@ -144,7 +145,7 @@ rings = 2
 
 TEST(CaseFile, KeyReferenceInDocsMatchesTheKeyTable) {
   // docs/case-format.md carries the generated reference between markers; it must not drift.
-  std::ifstream in(std::string(CLADWISE_SOURCE_DIR) + "/docs/case-format.md");
+  std::ifstream in(cladwise::test::source_path("docs/case-format.md"));
   ASSERT_TRUE(in) << "docs/case-format.md missing";
   std::stringstream buf;
   buf << in.rdbuf();

@@ -27,6 +27,7 @@
 #include "io/mode_pictures.hpp"
 #include "io/report_html.hpp"
 #include "io/solve_case.hpp"
+#include "run_cli.hpp"
 
 namespace fs = std::filesystem;
 using namespace cladwise;
@@ -100,7 +101,7 @@ struct Solved {
 const Solved& solved() {
   static const Solved s = [] {
     Solved r;
-    r.c = read_case_file(std::string(CLADWISE_SOURCE_DIR) + "/cases/elliptical_core.toml");
+    r.c = read_case_file(cladwise::test::source_path("cases/elliptical_core.toml"));
     r.mesh = mesh_case(r.c);
     r.sol = solve_case(r.c, r.mesh);
     r.run.case_path = r.c.path.string();
